@@ -1,0 +1,85 @@
+package eseries
+
+import (
+	"math"
+	"strconv"
+	"strings"
+)
+
+// engPrefixes are the prefixes Format uses, indexed by (exponent+12)/3.
+// Micro is written as the ASCII "u".
+var engPrefixes = [...]string{"p", "n", "u", "m", "", "k", "M", "G"}
+
+// Format writes v in the short engineering form parts are marked with: an
+// SI prefix chosen so that the number before it lies in [1, 1000), up to 6
+// significant digits, trailing zeros dropped. 4700 is "4.7k", 2.2e-9
+// "2.2n", 470e-12 "470p", 1e6 "1M", 100 "100", 0.47 "470m" and 12345.678
+// "12.3457k". The prefixes are p n u m k M G; values outside their reach
+// are written with an exponent, "1e-15" or "2.5e13". Negative values keep
+// their "-"; NaN and the infinities are "NaN", "+Inf" and "-Inf".
+//
+// Parse reads every result back, to the value rounded to 6 significant
+// digits.
+func Format(v float64) string {
+	return FormatSig(v, 6)
+}
+
+// FormatSig is Format with sig significant digits (clamped to 1..17).
+// Rounding happens before the prefix is chosen, so it may carry into the
+// next prefix: FormatSig(999.96, 3) is "1k". With 17 digits Parse reads the
+// result back to exactly v.
+func FormatSig(v float64, sig int) string {
+	switch {
+	case math.IsNaN(v):
+		return "NaN"
+	case math.IsInf(v, 1):
+		return "+Inf"
+	case math.IsInf(v, -1):
+		return "-Inf"
+	case v == 0:
+		return "0"
+	}
+	sig = max(1, min(sig, 17))
+	sign := ""
+	if v < 0 {
+		sign = "-"
+		v = -v
+	}
+
+	// strconv rounds correctly to sig digits: "d.ddde±XX".
+	e := strconv.FormatFloat(v, 'e', sig-1, 64)
+	ePos := strings.IndexByte(e, 'e')
+	digits := e[:1]
+	if ePos > 1 {
+		digits += e[2:ePos]
+	}
+	exp, _ := strconv.Atoi(e[ePos+1:]) // always well formed
+
+	if exp < -12 || exp >= 12 {
+		return sign + withPoint(digits, 1) + "e" + strconv.Itoa(exp)
+	}
+	p := exp - mod3(exp) // engineering exponent, a multiple of 3
+	return sign + withPoint(digits, exp-p+1) + engPrefixes[(p+12)/3]
+}
+
+// mod3 returns x mod 3 in [0, 3).
+func mod3(x int) int {
+	m := x % 3
+	if m < 0 {
+		m += 3
+	}
+	return m
+}
+
+// withPoint writes digits with the decimal point after the first n of
+// them, padding with zeros and dropping trailing zeros of the fraction.
+func withPoint(digits string, n int) string {
+	for len(digits) < n {
+		digits += "0"
+	}
+	whole, frac := digits[:n], strings.TrimRight(digits[n:], "0")
+	if frac == "" {
+		return whole
+	}
+	return whole + "." + frac
+}

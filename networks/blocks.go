@@ -1,0 +1,121 @@
+package networks
+
+import (
+	"fmt"
+	"math"
+)
+
+// RC is a resistor and a capacitor, the two parts of a filter leg or
+// section.
+type RC struct {
+	R float64 // Ω
+	C float64 // F
+}
+
+// Source is the stage that drives the tone section: an ideal voltage behind
+// an output impedance, optionally through a series coupling capacitor.
+type Source struct {
+	Impedance float64 // Ω; 0 is an ideal voltage source
+	SeriesC   float64 // F; 0 means DC-coupled (no capacitor)
+}
+
+// Blend is the blend tone network: from one input node a low-pass leg
+// (series R, then shunt C to ground) and a high-pass leg (series C, then
+// shunt R to ground); a pot's track runs from the low-pass leg's output to
+// the high-pass leg's output and its wiper is the network's output. Knob 0
+// puts the wiper at the low-pass end, knob 1 at the high-pass end.
+type Blend struct {
+	Lowpass  RC
+	Highpass RC
+	Pot      Pot // Position is the blend knob
+}
+
+// Level is a level (volume) pot: the track from the previous stage's output
+// to ground, the wiper drives what follows. Position 1 is full level.
+type Level struct {
+	Pot Pot
+}
+
+// Load is what the output drives: a resistance in parallel with an optional
+// capacitance (a cable, say). R = +Inf is an open circuit.
+type Load struct {
+	R float64 // Ω
+	C float64 // F; 0 for none
+}
+
+// build adds the source's coupling capacitor, if any, ahead of node in and
+// returns the node the ideal source and its impedance drive.
+func (s Source) build(n *Network, in string) (drive string) {
+	if s.SeriesC > 0 {
+		n.Capacitor("Csrc", "drive", in, s.SeriesC)
+		return "drive"
+	}
+	return in
+}
+
+// Build adds the blend network from node in to the wiper node out.
+func (b Blend) Build(n *Network, in, out string) {
+	n.Resistor("Rlp", in, "lp", b.Lowpass.R)
+	n.Capacitor("Clp", "lp", Ground, b.Lowpass.C)
+	n.Capacitor("Chp", in, "hp", b.Highpass.C)
+	n.Resistor("Rhp", "hp", Ground, b.Highpass.R)
+	n.Potentiometer("Ptone", "lp", out, "hp", b.Pot)
+}
+
+// abcd returns the blend network's transmission matrix at s = jω, from the
+// Kron reduction of its two internal nodes.
+func (b Blend) abcd(s complex128, ra, rb float64) abcd {
+	g1 := complex(1/b.Lowpass.R, 0)
+	y1 := s * complex(b.Lowpass.C, 0)
+	y2 := s * complex(b.Highpass.C, 0)
+	g2 := complex(1/b.Highpass.R, 0)
+	ga := complex(1/ra, 0)
+	gb := complex(1/rb, 0)
+	ia := 1 / (g1 + y1 + ga) // low-pass leg output node
+	ib := 1 / (y2 + g2 + gb) // high-pass leg output node
+	y11 := g1 + y2 - g1*g1*ia - y2*y2*ib
+	y12 := -g1*ga*ia - y2*gb*ib
+	y22 := ga + gb - ga*ga*ia - gb*gb*ib
+	inv := -1 / y12
+	return abcd{y22 * inv, inv, (y11*y22 - y12*y12) * inv, y11 * inv}
+}
+
+// BuildLadder adds RC low-pass sections (series R, shunt C) from in to out,
+// naming the inner nodes f1, f2, ….
+func BuildLadder(n *Network, sections []RC, in, out string) {
+	prev := in
+	for i, sec := range sections {
+		next := fmt.Sprintf("f%d", i+1)
+		if i == len(sections)-1 {
+			next = out
+		}
+		n.Resistor(fmt.Sprintf("Rf%d", i+1), prev, next, sec.R)
+		n.Capacitor(fmt.Sprintf("Cf%d", i+1), next, Ground, sec.C)
+		prev = next
+	}
+}
+
+// Build adds the level pot: its start to ground, its finish at in, the wiper
+// at out.
+func (l Level) Build(n *Network, in, out string) {
+	n.Potentiometer("Plevel", Ground, out, in, l.Pot)
+}
+
+// Build adds the load at node out.
+func (l Load) Build(n *Network, out string) {
+	if !math.IsInf(l.R, 1) {
+		n.Resistor("Rload", out, Ground, l.R)
+	}
+	if l.C > 0 {
+		n.Capacitor("Cload", out, Ground, l.C)
+	}
+}
+
+// admittance returns the load's admittance at s.
+func (l Load) admittance(s complex128) complex128 {
+	y := s * complex(l.C, 0)
+	if !math.IsInf(l.R, 1) {
+		y += complex(1/l.R, 0)
+	}
+	return y
+}

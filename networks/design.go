@@ -1,0 +1,148 @@
+package networks
+
+import (
+	"fmt"
+	"math"
+)
+
+// Design is a tone-and-level section as the design file describes it.
+type Design struct {
+	Name    string
+	Band    Band
+	Source  Source
+	Tone    Tone
+	Filters []RC
+	Level   *LevelSetting // nil: no level pot
+	Load    Load
+}
+
+// Tone is the tone network of a design. Network names its topology; "blend"
+// is the one there is.
+type Tone struct {
+	Network  string
+	Lowpass  RC
+	Highpass RC
+	Pot      PotPart
+}
+
+// PotPart is a pot as a part: track value and taper, without a position.
+type PotPart struct {
+	Value float64
+	Taper Taper
+}
+
+// LevelSetting is a level pot and where its knob sits.
+type LevelSetting struct {
+	Pot      PotPart
+	Position float64
+}
+
+// BlendNetwork is the name of the blend tone network in the design file.
+const BlendNetwork = "blend"
+
+// DefaultLoad is what a design drives unless it says otherwise: 1 MΩ, no
+// capacitance.
+var DefaultLoad = Load{R: 1e6}
+
+// Chain returns the design's chain with the blend knob at position blend.
+func (d *Design) Chain(blend float64) Chain {
+	c := Chain{
+		Source:  d.Source,
+		Blend:   Blend{Lowpass: d.Tone.Lowpass, Highpass: d.Tone.Highpass, Pot: Pot{Value: d.Tone.Pot.Value, Taper: d.Tone.Pot.Taper, Position: blend}},
+		Filters: d.Filters,
+		Load:    d.Load,
+	}
+	if d.Level != nil {
+		c.Level = &Level{Pot: Pot{Value: d.Level.Pot.Value, Taper: d.Level.Pot.Taper, Position: d.Level.Position}}
+	}
+	return c
+}
+
+// Validate checks every value of the design and names the key of the first
+// that is wrong.
+func (d *Design) Validate() error {
+	if err := d.Band.Check(); err != nil {
+		return fieldError("band", err)
+	}
+	if !nonNegative(d.Source.Impedance) {
+		return fieldError("source.impedance", fmt.Errorf("%v Ω must be zero or positive and finite", d.Source.Impedance))
+	}
+	if !nonNegative(d.Source.SeriesC) {
+		return fieldError("source.series_c", fmt.Errorf("%v F must be zero (none) or positive and finite", d.Source.SeriesC))
+	}
+	if d.Tone.Network != BlendNetwork {
+		return fieldError("tone.network", fmt.Errorf("unknown network %q: use %q", d.Tone.Network, BlendNetwork))
+	}
+	checks := []keyed{
+		{"tone.lowpass.r", d.Tone.Lowpass.R}, {"tone.lowpass.c", d.Tone.Lowpass.C},
+		{"tone.highpass.c", d.Tone.Highpass.C}, {"tone.highpass.r", d.Tone.Highpass.R},
+		{"tone.pot.value", d.Tone.Pot.Value},
+	}
+	for i, f := range d.Filters {
+		checks = append(checks, keyed{fmt.Sprintf("filters[%d].r", i), f.R}, keyed{fmt.Sprintf("filters[%d].c", i), f.C})
+	}
+	if d.Level != nil {
+		checks = append(checks, keyed{"level.pot.value", d.Level.Pot.Value})
+	}
+	for _, c := range checks {
+		if !positive(c.v) {
+			return fieldError(c.key, fmt.Errorf("%v must be positive and finite", c.v))
+		}
+	}
+	if err := d.Tone.Pot.Taper.check(); err != nil {
+		return fieldError("tone.pot.midpoint", err)
+	}
+	if d.Level != nil {
+		if err := d.Level.Pot.Taper.check(); err != nil {
+			return fieldError("level.pot.midpoint", err)
+		}
+		if !(d.Level.Position >= 0 && d.Level.Position <= 1) {
+			return fieldError("level.position", fmt.Errorf("%v is outside 0..1", d.Level.Position))
+		}
+	}
+	if !(d.Load.R > 0) {
+		return fieldError("load.r", fmt.Errorf("%v Ω must be positive (or open)", d.Load.R))
+	}
+	if !nonNegative(d.Load.C) {
+		return fieldError("load.c", fmt.Errorf("%v F must be zero (none) or positive and finite", d.Load.C))
+	}
+	return nil
+}
+
+// keyed is a value with the key path it came from.
+type keyed struct {
+	key string
+	v   float64
+}
+
+func positive(v float64) bool    { return v > 0 && !math.IsInf(v, 0) }
+func nonNegative(v float64) bool { return v >= 0 && !math.IsInf(v, 0) }
+
+// FieldError is a problem with one key of a design or targets file.
+type FieldError struct {
+	File string // may be empty
+	Line int    // 0 when unknown
+	Key  string // dotted key path, e.g. tone.lowpass.r
+	Err  error
+}
+
+func (e *FieldError) Error() string {
+	loc := e.File
+	if e.Line > 0 {
+		if loc != "" {
+			loc += ":"
+		}
+		loc += fmt.Sprint(e.Line)
+	}
+	if loc != "" {
+		loc += ": "
+	}
+	if e.Key != "" {
+		return fmt.Sprintf("%s%s: %v", loc, e.Key, e.Err)
+	}
+	return fmt.Sprintf("%s%v", loc, e.Err)
+}
+
+func (e *FieldError) Unwrap() error { return e.Err }
+
+func fieldError(key string, err error) error { return &FieldError{Key: key, Err: err} }
