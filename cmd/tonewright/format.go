@@ -1,0 +1,87 @@
+package main
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+
+	"tonewright/eseries"
+)
+
+// withUnit prints v in the short engineering form with a space before the
+// prefixed unit: 4.98 kHz, 6.8 kΩ, 470 pF.
+func withUnit(v float64, sig int, unit string) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return fmt.Sprint(v)
+	}
+	s := eseries.FormatSig(v, sig)
+	k := len(s)
+	for k > 0 && !(s[k-1] >= '0' && s[k-1] <= '9') {
+		k--
+	}
+	return s[:k] + " " + s[k:] + unit
+}
+
+func hz(v float64) string  { return withUnit(v, 3, "Hz") }
+func ohm(v float64) string { return withUnit(v, 3, "Ω") }
+
+// db prints a level in dB with a sign and one decimal; -0.0 prints as 0.0.
+func db(v float64) string {
+	if math.Abs(v) < 0.05 {
+		v = 0
+	}
+	return fmt.Sprintf("%+.1f dB", v)
+}
+
+// parseList reads a comma-separated list of part values (4.7k, 1M, 100).
+func parseList(flag, s string) ([]float64, error) {
+	var out []float64
+	for _, f := range strings.Split(s, ",") {
+		f = strings.TrimSpace(f)
+		if f == "" {
+			continue
+		}
+		v, err := eseries.Parse(f)
+		if err != nil {
+			return nil, usageErrorf("--%s: %v", flag, err)
+		}
+		out = append(out, v)
+	}
+	if len(out) == 0 {
+		return nil, usageErrorf("--%s: the list is empty: give values separated by commas, e.g. 100,1k,4.7k", flag)
+	}
+	return out, nil
+}
+
+// parsePositions reads knob positions: numbers from 0 to 1 separated by
+// commas.
+func parsePositions(flag, s string) ([]float64, error) {
+	var out []float64
+	for _, f := range strings.Split(s, ",") {
+		f = strings.TrimSpace(f)
+		if f == "" {
+			continue
+		}
+		v, err := strconv.ParseFloat(f, 64)
+		if err != nil || !(v >= 0 && v <= 1) {
+			return nil, usageErrorf("--%s: bad knob position %q: use numbers from 0 to 1 separated by commas, e.g. 0,0.25,0.5,0.75,1", flag, f)
+		}
+		out = append(out, v)
+	}
+	if len(out) == 0 {
+		return nil, usageErrorf("--%s: no knob positions: use numbers from 0 to 1 separated by commas, e.g. 0,0.5,1", flag)
+	}
+	return out, nil
+}
+
+// parsePosition reads one knob position.
+func parsePosition(flag string, v float64) error {
+	if !(v >= 0 && v <= 1) {
+		return usageErrorf("--%s: knob position %v is outside 0..1", flag, v)
+	}
+	return nil
+}
+
+// posLabel names a knob position in legends and headers: 0, 0.25, 1.
+func posLabel(p float64) string { return strconv.FormatFloat(p, 'f', -1, 64) }

@@ -1,0 +1,53 @@
+package main
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"tonewright/networks"
+)
+
+func init() { register(newNetlistCmd) }
+
+func newNetlistCmd(a *app) *cobra.Command {
+	var blend float64
+	var points int
+	c := &cobra.Command{
+		Use:   "netlist DESIGN.yaml",
+		Short: "Print the design as a SPICE deck for a circuit simulator",
+		Long: `netlist prints the design at one blend knob position as a SPICE deck: the
+source is V1 with AC 1, the output node is "out", every value is a plain
+exponent number (SPICE reads the suffix M as milli), pots are written as
+their two segments, and an .ac line sweeps the design's band.`,
+		Example: `  tonewright netlist board.yaml > board.cir
+  tonewright netlist board.yaml --blend 0.25 --points 1000
+  ngspice -b board.cir`,
+		Args: exactArgs(1, "DESIGN.yaml"),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			if err := parsePosition("blend", blend); err != nil {
+				return err
+			}
+			if points < 1 || points > 100000 {
+				return usageErrorf("--points %d: use a whole number from 1 to 100000", points)
+			}
+			d, err := loadDesign(args[0])
+			if err != nil {
+				return err
+			}
+			ch := d.Chain(blend)
+			title := fmt.Sprintf("%s at blend %s (tonewright netlist; %s)", designTitle(d), posLabel(blend), describeDesign(d))
+			title = strings.NewReplacer("Ω", "ohm", "∥", "||", "–", "-", "−", "-").Replace(title)
+			var b strings.Builder
+			if err := ch.Network().WriteSPICE(&b, title, d.Band, points); err != nil {
+				return badInput(fmt.Errorf("%s: %w", args[0], err))
+			}
+			_, err = fmt.Fprint(a.out, b.String())
+			return err
+		},
+	}
+	c.Flags().Float64Var(&blend, "blend", networks.ImpedanceBlend, "blend knob position, 0 (low-pass end) to 1 (high-pass end)")
+	c.Flags().IntVar(&points, "points", 100, "points per decade on the .ac line")
+	return c
+}

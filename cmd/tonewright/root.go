@@ -1,0 +1,71 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+
+	"github.com/spf13/cobra"
+	"golang.org/x/term"
+)
+
+// app is what every command writes to, so that tests can run commands
+// through the root with their own buffers.
+type app struct {
+	out, err io.Writer
+	// tty reports whether err is a terminal (progress bars go there only
+	// then).
+	tty bool
+}
+
+// commands lists the constructors of the subcommands; each command's file
+// adds its own in an init function.
+var commands []func(*app) *cobra.Command
+
+func register(c func(*app) *cobra.Command) { commands = append(commands, c) }
+
+// newRoot builds the command tree writing to a's streams.
+func newRoot(a *app) *cobra.Command {
+	root := &cobra.Command{
+		Use:   "tonewright",
+		Short: "Analyse and design the passive tone-and-level section of an effect",
+		Long: `tonewright analyses the passive tone-and-level section of a guitar or audio
+effect exactly (modified nodal analysis): a blend tone network, RC low-pass
+filter sections and a level pot, driven by a stage with an output impedance
+and loaded by what follows. It finds parts for a wanted voice in E-series
+values or from your own stock, and shows how source, load and part
+tolerances move the curve.`,
+		Example: `  tonewright demo
+  tonewright analyze board.yaml
+  tonewright plot board.yaml -o board.png`,
+		SilenceUsage:  true,
+		SilenceErrors: true,
+	}
+	root.SetOut(a.out)
+	root.SetErr(a.err)
+	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error {
+		return usageErrorf("%v (see %s --help)", err, c.CommandPath())
+	})
+	for _, c := range commands {
+		root.AddCommand(c(a))
+	}
+	return root
+}
+
+// run executes the command line and returns the exit code: 0 done, 1 an
+// internal failure, 2 bad input or usage, 3 targets not met.
+func run(args []string, out, errOut io.Writer) int {
+	a := &app{out: out, err: errOut}
+	if f, ok := errOut.(*os.File); ok {
+		a.tty = term.IsTerminal(int(f.Fd()))
+	}
+	root := newRoot(a)
+	root.SetArgs(args)
+	err := root.Execute()
+	if err == nil {
+		return 0
+	}
+	code := exitCode(err)
+	fmt.Fprintf(errOut, "tonewright: %v\n", err)
+	return code
+}

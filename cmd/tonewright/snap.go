@@ -1,0 +1,81 @@
+package main
+
+import (
+	"fmt"
+
+	"github.com/spf13/cobra"
+
+	"tonewright/eseries"
+)
+
+func init() { register(newSnapCmd) }
+
+// snapReport is the JSON of the snap command; other tools read these keys.
+type snapReport struct {
+	Value         float64  `json:"value"`
+	Series        string   `json:"series"`
+	Nearest       float64  `json:"nearest"`
+	Below         *float64 `json:"below"`
+	Above         *float64 `json:"above"`
+	ErrorPct      float64  `json:"error_pct"`
+	BelowErrorPct *float64 `json:"below_error_pct"`
+	AboveErrorPct *float64 `json:"above_error_pct"`
+	TolerancePct  float64  `json:"tolerance_pct"`
+}
+
+func newSnapCmd(a *app) *cobra.Command {
+	var series string
+	var asJSON bool
+	c := &cobra.Command{
+		Use:   "snap VALUE",
+		Short: "Fit a value to a preferred-number series: nearest, below and above",
+		Long: `snap finds the members of an IEC 60063 series nearest to a value (in log
+space), at or below it, and at or above it, with the errors in percent.
+VALUE is written as the trade writes it: 4700, 4.7k, 4k7, 2n2, 100nF, R47.`,
+		Example: `  tonewright snap 5k
+  tonewright snap 3n3 --series E6
+  tonewright snap 12.3k --series E96 --json`,
+		Args: exactArgs(1, "one VALUE"),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			s, err := eseries.SeriesByName(series)
+			if err != nil {
+				return usageErrorf("--series: %v", err)
+			}
+			v, err := eseries.Parse(args[0])
+			if err != nil {
+				return badInput(err)
+			}
+			if !(v > 0) {
+				return usageErrorf("value %q must be positive", args[0])
+			}
+			sn, err := eseries.SnapTo(s, v)
+			if err != nil {
+				return badInput(fmt.Errorf("value %q: %v", args[0], err))
+			}
+			r := snapReport{Value: v, Series: s.Name, Nearest: sn.Nearest, ErrorPct: 100 * sn.NearestErr, TolerancePct: 100 * s.Tolerance}
+			if sn.HasBelow {
+				b, e := sn.Below, 100*sn.BelowErr
+				r.Below, r.BelowErrorPct = &b, &e
+			}
+			if sn.HasAbove {
+				b, e := sn.Above, 100*sn.AboveErr
+				r.Above, r.AboveErrorPct = &b, &e
+			}
+			if asJSON {
+				return printJSON(a.out, r)
+			}
+			fmt.Fprintf(a.out, "%s in %s (%g %% parts):\n", eseries.Format(v), s.Name, 100*s.Tolerance)
+			fmt.Fprintf(a.out, "  nearest  %-8s %+.2f %%\n", eseries.Format(sn.Nearest), r.ErrorPct)
+			if r.Below != nil {
+				fmt.Fprintf(a.out, "  below    %-8s %+.2f %%\n", eseries.Format(*r.Below), *r.BelowErrorPct)
+			}
+			if r.Above != nil {
+				fmt.Fprintf(a.out, "  above    %-8s %+.2f %%\n", eseries.Format(*r.Above), *r.AboveErrorPct)
+			}
+			return nil
+		},
+	}
+	c.Flags().StringVar(&series, "series", "E24", "the series: E3, E6, E12, E24, E48, E96 or E192")
+	c.Flags().BoolVar(&asJSON, "json", false, "print the result as JSON")
+	return c
+}
