@@ -13,7 +13,8 @@ func SPICEValue(v float64) string { return strconv.FormatFloat(v, 'e', -1, 64) }
 
 // WriteSPICE writes the network as a SPICE deck: the source is V1 with
 // "AC 1", node names as in the network (ground is 0), and an .ac line over
-// band with perDecade points per decade. title is the deck's first line.
+// band with perDecade points per decade, and a .print line for the output's
+// magnitude (dB) and phase. title is the deck's first line.
 func (n *Network) WriteSPICE(w io.Writer, title string, band Band, perDecade int) error {
 	if err := n.check(); err != nil {
 		return err
@@ -42,7 +43,7 @@ func (n *Network) WriteSPICE(w io.Writer, title string, band Band, perDecade int
 		fmt.Fprintf(&b, "%s %s %s %s\n", name, node(e.A), node(e.B), SPICEValue(e.Value))
 	}
 	fmt.Fprintf(&b, ".ac dec %d %s %s\n", perDecade, SPICEValue(band.From), SPICEValue(band.To))
-	fmt.Fprintf(&b, "* output node: %s\n.end\n", n.out)
+	fmt.Fprintf(&b, ".print ac vdb(%s) vp(%s)\n.end\n", n.out, n.out)
 	_, err := io.WriteString(w, b.String())
 	return err
 }

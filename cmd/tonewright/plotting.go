@@ -60,14 +60,14 @@ type bode struct {
 // curveColors runs from warm (the low-pass end of the blend knob) to cool
 // (the high-pass end); chosen for this tool, readable on white.
 var curveColors = []color.RGBA{
-	{176, 58, 46, 255},   // brick red
-	{211, 132, 24, 255},  // amber
-	{60, 140, 64, 255},   // green
-	{32, 112, 170, 255},  // blue
-	{108, 62, 160, 255},  // violet
-	{90, 90, 90, 255},    // grey
-	{190, 70, 140, 255},  // magenta
-	{20, 150, 150, 255},  // teal
+	{176, 58, 46, 255},  // brick red
+	{211, 132, 24, 255}, // amber
+	{60, 140, 64, 255},  // green
+	{32, 112, 170, 255}, // blue
+	{108, 62, 160, 255}, // violet
+	{90, 90, 90, 255},   // grey
+	{190, 70, 140, 255}, // magenta
+	{20, 150, 150, 255}, // teal
 }
 
 func colorFor(i, n int) color.RGBA {
