@@ -13,6 +13,14 @@ type Band struct {
 // DefaultBand is the audio band, 20 Hz to 20 kHz.
 var DefaultBand = Band{From: 20, To: 20000}
 
+// The limits of a band: the metrics search up to ten times its top, on a
+// grid whose size grows with its width.
+const (
+	MinHz   = 1e-3
+	MaxHz   = 1e9
+	MaxSpan = 1e8 // to/from
+)
+
 // Check reports whether the band is usable.
 func (b Band) Check() error {
 	if !(b.From > 0) || math.IsInf(b.From, 0) || !(b.To > 0) || math.IsInf(b.To, 0) {
@@ -20,6 +28,9 @@ func (b Band) Check() error {
 	}
 	if b.From >= b.To {
 		return fmt.Errorf("band %v–%v Hz: from must be below to", b.From, b.To)
+	}
+	if b.From < MinHz || b.To > MaxHz || b.To/b.From > MaxSpan {
+		return fmt.Errorf("band %v–%v Hz: keep it within %g Hz–%g Hz and at most %g decades wide", b.From, b.To, MinHz, MaxHz, math.Log10(MaxSpan))
 	}
 	return nil
 }

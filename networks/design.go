@@ -37,6 +37,10 @@ type LevelSetting struct {
 	Position float64
 }
 
+// MaxFilters is the largest number of RC low-pass sections a design may
+// have.
+const MaxFilters = 20
+
 // BlendNetwork is the name of the blend tone network in the design file.
 const BlendNetwork = "blend"
 
@@ -72,6 +76,9 @@ func (d *Design) Validate() error {
 	}
 	if d.Tone.Network != BlendNetwork {
 		return fieldError("tone.network", fmt.Errorf("unknown network %q: use %q", d.Tone.Network, BlendNetwork))
+	}
+	if len(d.Filters) > MaxFilters {
+		return fieldError("filters", fmt.Errorf("%d sections: at most %d are supported", len(d.Filters), MaxFilters))
 	}
 	checks := []keyed{
 		{"tone.lowpass.r", d.Tone.Lowpass.R}, {"tone.lowpass.c", d.Tone.Lowpass.C},
