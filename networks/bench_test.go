@@ -1,6 +1,7 @@
 package networks
 
 import (
+	"fmt"
 	"testing"
 )
 
@@ -54,15 +55,54 @@ func BenchmarkChainNodal(b *testing.B) {
 	_ = sink
 }
 
-// BenchmarkAnalyze is a full analysis of the chain at five knob positions.
-func BenchmarkAnalyze(b *testing.B) {
-	c := benchChain()
-	d := &Design{Band: DefaultBand, Source: c.Source, Tone: Tone{Network: BlendNetwork, Lowpass: c.Blend.Lowpass, Highpass: c.Blend.Highpass, Pot: PotPart{Value: 100e3}},
-		Filters: c.Filters, Level: &LevelSetting{Pot: PotPart{Value: 100e3, Taper: Taper{Law: Audio}}, Position: 1}, Load: c.Load}
-	b.ReportAllocs()
-	for i := 0; i < b.N; i++ {
-		if _, err := Analyze(d, DefaultPositions); err != nil {
-			b.Fatal(err)
+// BenchmarkChainSections is the fast path with 1 to 6 filter sections, for
+// the README's table of how cost grows.
+func BenchmarkChainSections(b *testing.B) {
+	for n := 1; n <= 6; n++ {
+		c := benchChain()
+		c.Filters = nil
+		for i := 0; i < n; i++ {
+			c.Filters = append(c.Filters, RC{R: 10e3, C: 1e-9})
 		}
+		k := c.Compile()
+		freqs := LogGrid(20, 20000, 1000)
+		b.Run(fmt.Sprintf("sections=%d", n), func(b *testing.B) {
+			b.ReportAllocs()
+			var sink float64
+			for i := 0; i < b.N; i++ {
+				sink += k.GainDB(freqs[i%len(freqs)])
+			}
+			b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "points/s")
+			_ = sink
+		})
 	}
+}
+
+// counting counts the points a measurement evaluates.
+type counting struct {
+	r Response
+	n int
+}
+
+func (c *counting) GainDB(f float64) float64 { c.n++; return c.r.GainDB(f) }
+
+// BenchmarkMeter is the metrics of one knob position (the scoop) and of
+// knob 1 (the corner), as Analyze computes them, counted in frequency
+// points evaluated.
+func BenchmarkMeter(b *testing.B) {
+	c := benchChain()
+	k := c.Compile()
+	m := NewMeter(DefaultBand)
+	cnt := &counting{r: k}
+	m.Scoop(cnt)
+	m.Corner(cnt)
+	per := cnt.n
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		m.Scoop(k)
+		m.Corner(k)
+	}
+	b.ReportMetric(float64(per*b.N)/b.Elapsed().Seconds(), "points/s")
+	b.ReportMetric(float64(per), "points/op")
 }

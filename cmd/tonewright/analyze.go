@@ -20,6 +20,7 @@ func init() { register(newAnalyzeCmd) }
 func newAnalyzeCmd(a *app) *cobra.Command {
 	var positions, csvPath string
 	var asJSON bool
+	var points int
 	c := &cobra.Command{
 		Use:   "analyze DESIGN.yaml",
 		Short: "Measure a design: gain, scoop, corner and impedances at several knob positions",
@@ -30,11 +31,15 @@ then the output corner at knob 1 and the input and output impedances at
 		Example: `  tonewright analyze board.yaml
   tonewright analyze board.yaml --positions 0,0.5,1 --json
   tonewright analyze board.yaml --csv curves.csv`,
-		Args: exactArgs(1, "DESIGN.yaml"),
+		Args:              exactArgs(1, "DESIGN.yaml"),
+		ValidArgsFunction: yamlFiles,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			ps, err := parsePositions("positions", positions)
 			if err != nil {
 				return err
+			}
+			if points < 1 || points > 100000 {
+				return usageErrorf("--points %d: use a whole number from 1 to 100000", points)
 			}
 			d, err := loadDesign(args[0])
 			if err != nil {
@@ -45,7 +50,7 @@ then the output corner at knob 1 and the input and output impedances at
 				return badInput(fmt.Errorf("%s: %w", args[0], err))
 			}
 			if csvPath != "" {
-				if err := writeFile(csvPath, curvesCSV(d, ps), args[0]); err != nil {
+				if err := writeFile(csvPath, curvesCSV(d, ps, points), args[0]); err != nil {
 					return err
 				}
 			}
@@ -62,6 +67,7 @@ then the output corner at knob 1 and the input and output impedances at
 	c.Flags().StringVar(&positions, "positions", "0,0.25,0.5,0.75,1", "blend knob positions, 0 (low-pass end) to 1 (high-pass end)")
 	c.Flags().BoolVar(&asJSON, "json", false, "print the analysis as JSON")
 	c.Flags().StringVar(&csvPath, "csv", "", "write the curves (frequency, then magnitude dB and phase ° per position) to `FILE`")
+	c.Flags().IntVar(&points, "points", 100, "points per decade in the --csv file")
 	return c
 }
 
@@ -73,6 +79,14 @@ func exactArgs(n int, what string) cobra.PositionalArgs {
 		}
 		return nil
 	}
+}
+
+// yamlFiles completes the design-file argument with YAML files.
+func yamlFiles(cmd *cobra.Command, args []string, toComplete string) ([]string, cobra.ShellCompDirective) {
+	if len(args) > 0 {
+		return nil, cobra.ShellCompDirectiveNoFileComp
+	}
+	return []string{"yaml", "yml"}, cobra.ShellCompDirectiveFilterFileExt
 }
 
 func printJSON(w io.Writer, v any) error {
@@ -139,7 +153,7 @@ func writeAnalysis(w io.Writer, d *networks.Design, an *networks.Analysis) {
 }
 
 // curvesCSV tabulates magnitude and phase at each position over the band.
-func curvesCSV(d *networks.Design, ps []float64) []byte {
+func curvesCSV(d *networks.Design, ps []float64, perDecade int) []byte {
 	var b bytes.Buffer
 	b.WriteString("hz")
 	for _, p := range ps {
@@ -151,7 +165,7 @@ func curvesCSV(d *networks.Design, ps []float64) []byte {
 		c := d.Chain(p)
 		ks[i] = c.Compile()
 	}
-	for _, f := range networks.LogGrid(d.Band.From, d.Band.To, 100) {
+	for _, f := range networks.LogGrid(d.Band.From, d.Band.To, perDecade) {
 		fmt.Fprintf(&b, "%.6g", f)
 		for _, k := range ks {
 			h := k.Transfer(f)

@@ -24,7 +24,8 @@ their two segments, and an .ac line sweeps the design's band.`,
 		Example: `  tonewright netlist board.yaml > board.cir
   tonewright netlist board.yaml --blend 0.25 --points 1000
   ngspice -b board.cir`,
-		Args: exactArgs(1, "DESIGN.yaml"),
+		Args:              exactArgs(1, "DESIGN.yaml"),
+		ValidArgsFunction: yamlFiles,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if err := parsePosition("blend", blend); err != nil {
 				return err

@@ -22,7 +22,8 @@ and with --phase a phase panel below. The file type follows the extension:
 .png or .svg.`,
 		Example: `  tonewright plot board.yaml -o board.png
   tonewright plot board.yaml -o board.svg --positions 0,0.5,1 --phase`,
-		Args: exactArgs(1, "DESIGN.yaml"),
+		Args:              exactArgs(1, "DESIGN.yaml"),
+		ValidArgsFunction: yamlFiles,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if out == "" {
 				return usageErrorf("plot needs an output file: -o FILE.png or -o FILE.svg")
