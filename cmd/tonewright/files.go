@@ -4,15 +4,20 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"strings"
 
 	"tonewright/networks"
 )
 
-// loadDesign reads a design file; every failure is bad input.
+// loadDesign reads a design file; every failure is bad input. A design
+// without a name is named after its file.
 func loadDesign(path string) (*networks.Design, error) {
 	d, err := networks.LoadDesign(path)
 	if err != nil {
 		return nil, badInput(err)
+	}
+	if d.Name == "" {
+		d.Name = strings.TrimSuffix(filepath.Base(path), filepath.Ext(path))
 	}
 	return d, nil
 }

@@ -150,6 +150,7 @@ func (b *bode) render(path string, inputs ...string) error {
 	styleAxes(mag)
 	freqAxis(mag, b.Range)
 	mag.Y.Label.Text = "gain (dB)"
+	mag.Y.Tick.Marker = dbTicks{}
 	mag.Legend.Top = false
 	mag.Legend.Left = true
 	mag.Legend.XOffs = vg.Points(8)
@@ -336,6 +337,25 @@ func (degTicks) Ticks(min, max float64) []plot.Tick {
 	}
 	var ts []plot.Tick
 	for v := math.Ceil(min/step) * step; v <= max; v += step {
+		ts = append(ts, plot.Tick{Value: v, Label: fmt.Sprintf("%g", v)})
+	}
+	return ts
+}
+
+// dbTicks labels a level axis at a round step that gives four to ten
+// labels.
+type dbTicks struct{}
+
+func (dbTicks) Ticks(min, max float64) []plot.Tick {
+	step := 1.0
+	for _, s := range []float64{1, 2, 5, 10, 20, 50, 100} {
+		step = s
+		if (max-min)/s <= 10 {
+			break
+		}
+	}
+	var ts []plot.Tick
+	for v := math.Ceil(min/step) * step; v <= max+1e-9; v += step {
 		ts = append(ts, plot.Tick{Value: v, Label: fmt.Sprintf("%g", v)})
 	}
 	return ts
