@@ -62,22 +62,38 @@ func (b Blend) Build(n *Network, in, out string) {
 	n.Potentiometer("Ptone", "lp", out, "hp", b.Pot)
 }
 
-// abcd returns the blend network's transmission matrix at s = jω, from the
-// Kron reduction of its two internal nodes.
-func (b Blend) abcd(s complex128, ra, rb float64) abcd {
-	g1 := complex(1/b.Lowpass.R, 0)
-	y1 := s * complex(b.Lowpass.C, 0)
-	y2 := s * complex(b.Highpass.C, 0)
-	g2 := complex(1/b.Highpass.R, 0)
-	ga := complex(1/ra, 0)
-	gb := complex(1/rb, 0)
-	ia := 1 / (g1 + y1 + ga) // low-pass leg output node
-	ib := 1 / (y2 + g2 + gb) // high-pass leg output node
-	y11 := g1 + y2 - g1*g1*ia - y2*y2*ib
-	y12 := -g1*ga*ia - y2*gb*ib
-	y22 := ga + gb - ga*ga*ia - gb*gb*ib
+// admittances returns the blend network's short-circuit admittance
+// parameters between its input and its wiper at angular frequency w (the
+// network is reciprocal, so y21 = y12), by Kron reduction of the two legs'
+// output nodes; ra and rb are the pot's segments. Reciprocals of the two
+// node admittances are taken in real arithmetic, the one hot spot of the
+// fast path.
+func (b *Blend) admittances(w, ra, rb float64) (y11, y12, y22 complex128) {
+	g1, g2 := 1/b.Lowpass.R, 1/b.Highpass.R
+	ga, gb := 1/ra, 1/rb
+	ia := recip(g1+ga, w*b.Lowpass.C)  // low-pass leg output node
+	ib := recip(g2+gb, w*b.Highpass.C) // high-pass leg output node
+	y2 := complex(0, w*b.Highpass.C)
+	cg1, cga, cgb := complex(g1, 0), complex(ga, 0), complex(gb, 0)
+	y11 = cg1 + y2 - cg1*cg1*ia - y2*y2*ib
+	y12 = -cg1*cga*ia - y2*cgb*ib
+	y22 = cga + cgb - cga*cga*ia - cgb*cgb*ib
+	return y11, y12, y22
+}
+
+// abcd returns the blend network's transmission matrix at angular
+// frequency w: from the Y parameters, A = −y22/y12, B = −1/y12,
+// C = −det(Y)/y12, D = −y11/y12.
+func (b *Blend) abcd(w, ra, rb float64) abcd {
+	y11, y12, y22 := b.admittances(w, ra, rb)
 	inv := -1 / y12
 	return abcd{y22 * inv, inv, (y11*y22 - y12*y12) * inv, y11 * inv}
+}
+
+// recip returns 1/(re + j·im).
+func recip(re, im float64) complex128 {
+	d := re*re + im*im
+	return complex(re/d, -im/d)
 }
 
 // BuildLadder adds RC low-pass sections (series R, shunt C) from in to out,

@@ -92,68 +92,76 @@ func (c *Chain) CompileInto(k *Compiled) {
 	}
 }
 
-// sourceZ returns the source's series impedance at s.
-func (k *Compiled) sourceZ(s complex128) complex128 {
+// sourceZ returns the source's series impedance at angular frequency w.
+func (k *Compiled) sourceZ(w float64) complex128 {
 	z := complex(k.zsR, 0)
 	if k.csrc > 0 {
-		z += 1 / (s * complex(k.csrc, 0))
+		z += complex(0, -1/(w*k.csrc))
 	}
 	return z
 }
 
 // tail multiplies r by everything after the source, up to and, with load
 // set, including the load.
-func (k *Compiled) tail(r row, s complex128, load bool) row {
-	r = r.mul(k.blend.abcd(s, k.ra, k.rb))
+func (k *Compiled) tail(r row, w float64, load bool) row {
+	return k.afterBlend(r.mul(k.blend.abcd(w, k.ra, k.rb)), w, load)
+}
+
+// afterBlend multiplies r by the filter sections, the level pot and, with
+// load set, the load.
+func (k *Compiled) afterBlend(r row, w float64, load bool) row {
 	for _, f := range k.filters {
-		r = r.seriesZ(complex(f.R, 0)).shuntY(s * complex(f.C, 0))
+		r = r.seriesZ(complex(f.R, 0)).shuntY(complex(0, w*f.C))
 	}
 	if k.level {
 		r = r.seriesZ(complex(k.la, 0)).shuntY(complex(1/k.lb, 0))
 	}
 	if load {
-		r = r.shuntY(complex(k.loadG, 0) + s*complex(k.loadC, 0))
+		r = r.shuntY(complex(k.loadG, w*k.loadC))
 	}
 	return r
 }
 
 // Transfer returns V(out)/V(source) at frequency f (Hz).
 func (k *Compiled) Transfer(f float64) complex128 {
-	s := complex(0, 2*math.Pi*f)
-	r := k.tail(row{1, k.sourceZ(s)}, s, true)
+	w := 2 * math.Pi * f
+	r := k.tail(row{1, k.sourceZ(w)}, w, true)
 	return 1 / r.a
 }
 
-// GainDB returns 20·log10|V(out)/V(source)| at frequency f.
+// GainDB returns 20·log10|V(out)/V(source)| at frequency f. It is the
+// search's inner loop, so it skips the blend matrix's common factor −1/y12:
+// the row (1, Zs) times the blend matrix scaled by −y12 is
+// (y22 + Zs·det Y, 1 + Zs·y11), and |H| = |y12| / |A'|.
 func (k *Compiled) GainDB(f float64) float64 {
-	s := complex(0, 2*math.Pi*f)
-	r := k.tail(row{1, k.sourceZ(s)}, s, true)
-	return -10 * math.Log10(real(r.a)*real(r.a)+imag(r.a)*imag(r.a))
+	w := 2 * math.Pi * f
+	zs := k.sourceZ(w)
+	y11, y12, y22 := k.blend.admittances(w, k.ra, k.rb)
+	r := k.afterBlend(row{y22 + zs*(y11*y22-y12*y12), 1 + zs*y11}, w, true)
+	n := real(y12)*real(y12) + imag(y12)*imag(y12)
+	d := real(r.a)*real(r.a) + imag(r.a)*imag(r.a)
+	return 10 * math.Log10(n/d)
 }
 
 // InputImpedance returns the impedance the section presents to the source
 // at node "in" (after the source impedance and coupling capacitor), with the
 // load connected.
 func (k *Compiled) InputImpedance(f float64) complex128 {
-	s := complex(0, 2*math.Pi*f)
-	// The full matrix's first column of the cascade after the source gives
-	// V_in/I_in = A/C with the output open; the load is inside the cascade.
-	t := abcd{1, 0, 0, 1}.mul(k.blend.abcd(s, k.ra, k.rb))
-	for _, fl := range k.filters {
-		t = t.mul(series(complex(fl.R, 0))).mul(shunt(s * complex(fl.C, 0)))
-	}
-	if k.level {
-		t = t.mul(series(complex(k.la, 0))).mul(shunt(complex(1/k.lb, 0)))
-	}
-	t = t.mul(shunt(complex(k.loadG, 0) + s*complex(k.loadC, 0)))
-	return t.a / t.c
+	w := 2 * math.Pi * f
+	// The cascade after the source, load included, gives V_in/I_in = A/C
+	// with the output open. Its top row (A, B) and bottom row (C, D) are
+	// each a row times the same matrices.
+	t := k.blend.abcd(w, k.ra, k.rb)
+	top := k.afterBlend(row{t.a, t.b}, w, true)
+	bottom := k.afterBlend(row{t.c, t.d}, w, true)
+	return top.a / bottom.a
 }
 
 // OutputImpedance returns the Thevenin impedance the load sees at "out":
 // the section with the source shorted, without the load.
 func (k *Compiled) OutputImpedance(f float64) complex128 {
-	s := complex(0, 2*math.Pi*f)
-	r := k.tail(row{1, k.sourceZ(s)}, s, false)
+	w := 2 * math.Pi * f
+	r := k.tail(row{1, k.sourceZ(w)}, w, false)
 	if r.a == 0 {
 		return cmplx.Inf()
 	}

@@ -86,7 +86,7 @@ func TestNetlistReproducesAnalyze(t *testing.T) {
 				if g[i] < g[k]-3 {
 					// Linear interpolation in log f between the bracketing points.
 					x := math.Log10(f[i-1]) + (g[k]-3-g[i-1])/(g[i]-g[i-1])*math.Log10(f[i]/f[i-1])
-					if c := math.Pow(10, x); math.Abs(c / *an.CornerHz-1) > 1e-3 {
+					if c := math.Pow(10, x); math.Abs(c / *an.CornerHz - 1) > 1e-3 {
 						t.Errorf("ngspice corner %.2f Hz, analyze %.2f", c, *an.CornerHz)
 					}
 					break

@@ -162,7 +162,7 @@ func (b *bode) render(path string, inputs ...string) error {
 			return err
 		}
 		c := colorFor(i, len(b.Bands))
-		pg.Color = color.RGBA{c.R, c.G, c.B, 60}
+		pg.Color = color.NRGBA{c.R, c.G, c.B, 60}
 		pg.LineStyle.Width = 0
 		mag.Add(pg)
 		if bd.Label != "" {
