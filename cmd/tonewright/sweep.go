@@ -1,0 +1,245 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"strings"
+	"text/tabwriter"
+
+	"github.com/spf13/cobra"
+
+	"tonewright/eseries"
+	"tonewright/networks"
+)
+
+func init() { register(newSweepCmd) }
+
+func newSweepCmd(a *app) *cobra.Command {
+	var sources, loads, plotPath string
+	var blend float64
+	var asJSON bool
+	c := &cobra.Command{
+		Use:   "sweep DESIGN.yaml --source LIST [--load LIST]",
+		Short: "Measure the design with other source impedances and loads",
+		Long: `sweep measures the design once for every source impedance and every load
+resistance given (every combination: sources outer, loads inner) and prints
+the gain at 1 kHz and the scoop at the chosen blend knob position, the
+output corner (knob 1), and how far each lies from the design's own values.
+A source value replaces source.impedance (the coupling capacitor stays); a
+load value replaces load.r (the load capacitance stays). Give --source,
+--load or both; the one left out stays as the design has it.
+
+Shifts: frequencies in percent, 100·(f/f_design − 1); levels in dB,
+value − value_design.`,
+		Example: `  tonewright sweep board.yaml --source 100,1k,4.7k,22k
+  tonewright sweep board.yaml --source 1k,10k --load 100k,1M,open --blend 0.3
+  tonewright sweep board.yaml --load 250k,1M --plot loads.png --json`,
+		Args: exactArgs(1, "DESIGN.yaml"),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			var srcs, lds []float64
+			var err error
+			haveSrc, haveLoad := cmd.Flags().Changed("source"), cmd.Flags().Changed("load")
+			if !haveSrc && !haveLoad {
+				return usageErrorf("sweep needs --source, --load or both: comma-separated values such as --source 100,1k,4.7k,22k")
+			}
+			if haveSrc {
+				if srcs, err = parseImpedances("source", sources, false); err != nil {
+					return err
+				}
+			}
+			if haveLoad {
+				if lds, err = parseImpedances("load", loads, true); err != nil {
+					return err
+				}
+			}
+			if err := parsePosition("blend", blend); err != nil {
+				return err
+			}
+			if plotPath != "" {
+				if err := checkPlotPath(plotPath, args[0]); err != nil {
+					return err
+				}
+			}
+			d, err := loadDesign(args[0])
+			if err != nil {
+				return err
+			}
+			res, err := networks.Sweep(d, srcs, lds, blend)
+			if err != nil {
+				return badInput(fmt.Errorf("%s: %w", args[0], err))
+			}
+			if plotPath != "" {
+				if err := sweepPlot(d, res, haveSrc, haveLoad).render(plotPath, args[0]); err != nil {
+					return err
+				}
+			}
+			if asJSON {
+				return printJSON(a.out, res)
+			}
+			writeSweep(a.out, d, res)
+			if plotPath != "" {
+				fmt.Fprintf(a.out, "\nplot written to %s\n", plotPath)
+			}
+			return nil
+		},
+	}
+	c.Flags().StringVar(&sources, "source", "", "source impedances to try, a comma-separated `LIST` (100,1k,4.7k,22k; 0 is an ideal source)")
+	c.Flags().StringVar(&loads, "load", "", "load resistances to try, a comma-separated `LIST` (100k,1M; open for none)")
+	c.Flags().Float64Var(&blend, "blend", networks.DefaultStudyBlend, "blend knob position for the gain and the scoop, 0 (low-pass end) to 1 (high-pass end)")
+	c.Flags().StringVar(&plotPath, "plot", "", "draw the curves at the blend position, one per value, to `FILE` (.png or .svg)")
+	c.Flags().BoolVar(&asJSON, "json", false, "print the sweep as JSON")
+	return c
+}
+
+// parseImpedances reads a comma-separated list of resistances for a flag:
+// part values as eseries.Parse reads them, zero or more for a source,
+// positive or the word open for a load.
+func parseImpedances(flag, s string, load bool) ([]float64, error) {
+	var out []float64
+	what, forms := "source impedance", "values such as 100,1k,4.7k,22k (0 is an ideal source)"
+	if load {
+		what, forms = "load resistance", "values above 0 such as 100k,1M, or open"
+	}
+	for _, f := range strings.Split(s, ",") {
+		f = strings.TrimSpace(f)
+		if f == "" {
+			continue
+		}
+		if load && strings.EqualFold(f, "open") {
+			out = append(out, math.Inf(1))
+			continue
+		}
+		v, err := eseries.Parse(f)
+		if err != nil {
+			return nil, usageErrorf("--%s: %v", flag, err)
+		}
+		if v < 0 || (load && v == 0) {
+			return nil, usageErrorf("--%s: %q is not a usable %s: give %s", flag, f, what, forms)
+		}
+		out = append(out, v)
+	}
+	if len(out) == 0 {
+		return nil, usageErrorf("--%s: the list is empty: give %s, separated by commas", flag, forms)
+	}
+	return out, nil
+}
+
+// checkPlotPath refuses a plot file name before any work is done.
+func checkPlotPath(path string, inputs ...string) error {
+	if ext := strings.ToLower(path[strings.LastIndex(path, ".")+1:]); !strings.Contains(path, ".") || (ext != "png" && ext != "svg") {
+		return usageErrorf("--plot %s: the name must end in .png or .svg", path)
+	}
+	return checkOutput(path, inputs...)
+}
+
+// loadLabel names a load resistance, open included.
+func loadLabel(r float64) string {
+	if math.IsInf(r, 1) {
+		return "open"
+	}
+	return ohm(r)
+}
+
+// shiftDB prints a level shift in dB with two decimals and a sign.
+func shiftDB(v *float64) string {
+	if v == nil {
+		return "–"
+	}
+	x := *v
+	if math.Abs(x) < 0.005 {
+		x = 0
+	}
+	return fmt.Sprintf("%+.2f", x)
+}
+
+// shiftPct prints a frequency shift in percent with a sign.
+func shiftPct(v *float64) string {
+	if v == nil {
+		return "–"
+	}
+	x := *v
+	if math.Abs(x) < 0.05 {
+		x = 0
+	}
+	return fmt.Sprintf("%+.1f", x)
+}
+
+// writeSweep prints the sweep table.
+func writeSweep(w io.Writer, d *networks.Design, res *networks.SweepResult) {
+	nom := networks.MetricsOf(res.Nominal)
+	fmt.Fprintf(w, "%s: %s; blend %s\n", designTitle(d), describeDesign(d), posLabel(res.Blend))
+	fmt.Fprintf(w, "design's own: %s\n\n", metricsLine(nom, d))
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintln(tw, "source\tload\tgain 1 kHz\tΔ dB\tscoop at\tΔ %\tdepth\tΔ dB\tbalance\tΔ dB\tcorner\tΔ %\t")
+	for _, r := range res.Rows {
+		m := networks.MetricsOf(r.Metrics)
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t", ohm(r.SourceOhm), loadLabel(r.LoadOhm), db(m.Gain1kDB), shiftDB(&r.Shift.Gain1kDB))
+		if m.Scoop != nil {
+			fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t", hz(m.Scoop.Hz), shiftPct(r.Shift.ScoopHzPct), db(m.Scoop.DepthDB), shiftDB(r.Shift.DepthDB), db(m.Scoop.BalanceDB), shiftDB(r.Shift.BalanceDB))
+		} else {
+			fmt.Fprint(tw, "no scoop\t–\t\t–\t\t–\t")
+		}
+		if m.CornerHz != nil {
+			fmt.Fprintf(tw, "%s\t%s\t\n", hz(*m.CornerHz), shiftPct(r.Shift.CornerPct))
+		} else {
+			fmt.Fprint(tw, "none\t–\t\n")
+		}
+	}
+	tw.Flush()
+	fmt.Fprintln(w, "\nΔ: shift from the design's own values, levels in dB, frequencies in % (100·(f/f_design − 1));")
+	fmt.Fprintln(w, "–: the design or the row has no scoop. Corner: knob 1, −3 dB.")
+}
+
+// metricsLine summarises study metrics on one line.
+func metricsLine(m networks.StudyMetrics, d *networks.Design) string {
+	s := "gain at 1 kHz " + db(m.Gain1kDB)
+	if m.Scoop != nil {
+		s += fmt.Sprintf(", scoop at %s (depth %s, balance %s)", hz(m.Scoop.Hz), db(m.Scoop.DepthDB), db(m.Scoop.BalanceDB))
+	} else {
+		s += ", no scoop"
+	}
+	if m.CornerHz != nil {
+		s += ", corner " + hz(*m.CornerHz)
+	} else {
+		s += ", no corner below " + hz(10*d.Band.To)
+	}
+	return s
+}
+
+// sweepPlot overlays the curves at the sweep's blend position, one per row,
+// with the design's own curve dashed.
+func sweepPlot(d *networks.Design, res *networks.SweepResult, bySource, byLoad bool) *bode {
+	label := func(src, load float64) string {
+		var parts []string
+		if bySource {
+			parts = append(parts, "source "+ohm(src))
+		}
+		if byLoad {
+			parts = append(parts, "load "+loadLabel(load))
+		}
+		return strings.Join(parts, ", ")
+	}
+	what := "load resistance"
+	switch {
+	case bySource && byLoad:
+		what = "source impedance and load resistance"
+	case bySource:
+		what = "source impedance"
+	}
+	b := &bode{
+		Title:   designTitle(d) + ": blend " + posLabel(res.Blend),
+		Caption: "sweep of the " + what + "; dashed: the design as it is",
+		Range:   d.Band,
+	}
+	for _, r := range res.Rows {
+		c := designCurves(networks.Variant(d, r.SourceOhm, r.LoadOhm), []float64{res.Blend}, false)[0]
+		c.Label = label(r.SourceOhm, r.LoadOhm)
+		b.Curves = append(b.Curves, c)
+	}
+	own := designCurves(d, []float64{res.Blend}, false)[0]
+	own.Label = "design: " + label(d.Source.Impedance, d.Load.R)
+	own.Dash = true
+	b.Curves = append(b.Curves, own)
+	return b
+}
