@@ -22,7 +22,6 @@ type Solver struct {
 	m      int // matrix order
 	a      []complex128
 	x      []complex128
-	perm   []int
 	solved bool
 }
 
@@ -77,7 +76,6 @@ func (n *Network) Compile() (*Solver, error) {
 	s.m = nn + 1
 	s.a = make([]complex128, s.m*s.m)
 	s.x = make([]complex128, s.m)
-	s.perm = make([]int, s.m)
 	return s, nil
 }
 
@@ -165,7 +163,7 @@ func (s *Solver) solve(f float64, zeroSource bool) error {
 	} else {
 		s.x[vs] = 1
 	}
-	if k, ok := luSolve(a, s.x, s.perm, m); !ok {
+	if k, ok := luSolve(a, s.x, m); !ok {
 		if k < len(s.names)-1 {
 			return fmt.Errorf("singular network at %g Hz: node %q has no defined voltage", f, s.names[k+1])
 		}
@@ -217,7 +215,7 @@ func (s *Solver) OutputImpedance(f float64) (complex128, error) {
 // luSolve solves a·x = b in place (b is overwritten by x) by Gaussian
 // elimination with partial pivoting. It returns false and the column of a
 // vanishing pivot when the matrix is singular.
-func luSolve(a, b []complex128, perm []int, m int) (int, bool) {
+func luSolve(a, b []complex128, m int) (int, bool) {
 	var norm float64
 	for _, v := range a {
 		if r := cmplx.Abs(v); r > norm {
@@ -241,7 +239,6 @@ func luSolve(a, b []complex128, perm []int, m int) (int, bool) {
 			}
 			b[k], b[p] = b[p], b[k]
 		}
-		perm[k] = p
 		inv := 1 / a[k*m+k]
 		for r := k + 1; r < m; r++ {
 			l := a[r*m+k] * inv
