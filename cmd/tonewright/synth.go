@@ -1,0 +1,593 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+	"text/tabwriter"
+	"time"
+
+	"github.com/schollz/progressbar/v3"
+	"github.com/spf13/cobra"
+
+	"tonewright/eseries"
+	"tonewright/networks"
+	"tonewright/synth"
+)
+
+func init() { register(newSynthCmd) }
+
+// synthFlags are the synth command's flags, as typed.
+type synthFlags struct {
+	scoopHz, depth, balance, at, corner string
+	source, load, loadC                 string
+	filters                             int
+	resistors, capacitors, pots, stock  string
+	from, free                          string
+	maxChanges                          int
+	out, plot                           string
+	json                                bool
+	seed                                uint64
+}
+
+func newSynthCmd(a *app) *cobra.Command {
+	var f synthFlags
+	c := &cobra.Command{
+		Use:   "synth [TARGETS.yaml]",
+		Short: "Find the parts for a wanted scoop, balance and corner in E-series values or from stock",
+		Long: `synth chooses the blend network's parts, its pot and the RC low-pass
+sections' R and C for the voice you want: the scoop's frequency, depth and
+balance at one knob position, and the output corner at knob 1, with the
+impedances around the network taken into account. It finds the exact
+(ideal) values first, then the nearest allowed combination of E-series or
+stocked parts, and reports how close both come.
+
+Targets come from a targets file, from flags, or both (flags win). With
+--from it re-voices an existing design instead, changing only the parts
+named by --free and at most --max-changes of them; targets not given keep
+the design's current figures.
+
+Exit status: 0 all targets met, 2 bad input, 3 targets not met (the best
+design is still reported and written).`,
+		Example: `  tonewright synth voice.yaml -o board.yaml
+  tonewright synth --scoop-hz 700 --depth -9 --corner 9k --source 6.8k --plot synth.png
+  tonewright synth --from board.yaml --scoop-hz 600 --max-changes 1
+  tonewright synth voice.yaml --stock drawer.yaml --json`,
+		Args: func(cmd *cobra.Command, args []string) error {
+			if len(args) > 1 {
+				return usageErrorf("%s takes at most one TARGETS.yaml file (got %d arguments); see %s --help", cmd.CommandPath(), len(args), cmd.CommandPath())
+			}
+			return nil
+		},
+		RunE: func(cmd *cobra.Command, args []string) error {
+			return runSynth(a, cmd, args, &f)
+		},
+	}
+	fl := c.Flags()
+	fl.StringVar(&f.scoopHz, "scoop-hz", "", "scoop frequency, e.g. 800 or 1.2k")
+	fl.StringVar(&f.depth, "depth", "", "scoop depth below the shoulders in dB, negative, e.g. -10")
+	fl.StringVar(&f.balance, "balance", "", "upper shoulder minus lower shoulder in dB (default 0; re-voicing: kept)")
+	fl.StringVar(&f.at, "at", "", "blend knob position the scoop is measured at, 0..1 (default 0.5)")
+	fl.StringVar(&f.corner, "corner", "", "output corner at knob 1 (−3 dB), e.g. 5k")
+	fl.StringVar(&f.source, "source", "", "output impedance of the driving stage, e.g. 6.8k")
+	fl.StringVar(&f.load, "load", "", "load resistance, e.g. 1M, or open")
+	fl.StringVar(&f.loadC, "load-c", "", "load capacitance (cable), e.g. 470p")
+	fl.IntVar(&f.filters, "filters", synth.DefaultFilters, "number of identical RC low-pass sections")
+	fl.StringVar(&f.resistors, "resistors", "", "resistor values: a series E3…E192 or a comma list (default E24)")
+	fl.StringVar(&f.capacitors, "capacitors", "", "capacitor values: a series E3…E192 or a comma list (default E12)")
+	fl.StringVar(&f.pots, "pots", "", "blend pot values, a comma list (default 10k,20k,25k,50k,100k,250k,500k,1M)")
+	fl.StringVar(&f.stock, "stock", "", "use only the values listed in the stock `FILE`")
+	fl.StringVar(&f.from, "from", "", "re-voice the design in `DESIGN.yaml`")
+	fl.StringVar(&f.free, "free", "", "parts that may change, comma separated, e.g. lowpass.r,lowpass.c,highpass.c (default all)")
+	fl.IntVar(&f.maxChanges, "max-changes", 0, "re-voicing: change at most N parts (0: no limit)")
+	fl.StringVarP(&f.out, "output", "o", "", "write the chosen design to `DESIGN.yaml`")
+	fl.StringVar(&f.plot, "plot", "", "draw the chosen design with the targets to `FILE` (.png or .svg)")
+	fl.BoolVar(&f.json, "json", false, "print targets, ideal and chosen designs and the analysis as JSON")
+	fl.Uint64Var(&f.seed, "seed", 0, "seed of the search's random starts")
+	return c
+}
+
+func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
+	p := &synth.Problem{}
+	var inputs []string
+	if len(args) == 1 {
+		var err error
+		if p, err = synth.LoadTargets(args[0]); err != nil {
+			return badInput(err)
+		}
+		inputs = append(inputs, args[0])
+		if p.Parts.Stock != nil {
+			inputs = append(inputs, p.Parts.Stock.File)
+		}
+	}
+	if err := applySynthFlags(cmd, f, p); err != nil {
+		return err
+	}
+	if f.from != "" {
+		d, err := loadDesign(f.from)
+		if err != nil {
+			return err
+		}
+		p.From = d
+		inputs = append(inputs, f.from)
+	} else if cmd.Flags().Changed("free") || cmd.Flags().Changed("max-changes") {
+		return usageErrorf("--free and --max-changes re-voice an existing design: give it with --from DESIGN.yaml")
+	}
+	if f.stock != "" {
+		inputs = append(inputs, f.stock)
+	}
+	// Refuse bad output names before the search, not after it.
+	if f.out != "" {
+		if err := checkOutput(f.out, inputs...); err != nil {
+			return err
+		}
+	}
+	if f.plot != "" {
+		if err := checkPlotName(f.plot, inputs...); err != nil {
+			return err
+		}
+	}
+
+	opt := synth.Options{Seed: f.seed}
+	var bar *progressbar.ProgressBar
+	if a.tty {
+		bar = progressbar.NewOptions(1, progressbar.OptionSetWriter(a.err), progressbar.OptionSetDescription("synth"),
+			progressbar.OptionThrottle(100*time.Millisecond), progressbar.OptionClearOnFinish(), progressbar.OptionSetWidth(30))
+		opt.Progress = func(done, total int) {
+			bar.ChangeMax(total)
+			_ = bar.Set(done)
+		}
+	}
+	res, err := synth.Solve(p, opt)
+	if bar != nil {
+		_ = bar.Finish()
+	}
+	if err != nil {
+		return badInput(err)
+	}
+
+	if f.out != "" {
+		if err := writeFile(f.out, res.Design.YAML(), inputs...); err != nil {
+			return err
+		}
+	}
+	if f.plot != "" {
+		if err := plotSynth(res, f.plot, inputs...); err != nil {
+			return err
+		}
+	}
+	if f.json {
+		an, err := networks.Analyze(res.Design, networks.DefaultPositions)
+		if err != nil {
+			return fmt.Errorf("analysing the chosen design: %w", err)
+		}
+		if err := printJSON(a.out, synthJSON{Targets: res.Targets, Ideal: synth.NewDesignJSON(res.Ideal),
+			Design: synth.NewDesignJSON(res.Design), Achieved: an, Met: res.Met, Feasible: res.Feasible,
+			Parts: res.Parts, Checks: res.Checks, Changes: nonNil(res.Changes)}); err != nil {
+			return err
+		}
+	} else {
+		writeSynthReport(a.out, res, p.From != nil)
+		if f.out != "" {
+			fmt.Fprintf(a.out, "\ndesign written to %s\n", f.out)
+		}
+		if f.plot != "" {
+			fmt.Fprintf(a.out, "plot written to %s\n", f.plot)
+		}
+	}
+	if !res.Met {
+		return &unmetError{msg: unmetMessage(res)}
+	}
+	return nil
+}
+
+// synthJSON is the --json output.
+type synthJSON struct {
+	Targets  synth.Targets      `json:"targets"`
+	Ideal    *synth.DesignJSON  `json:"ideal"`
+	Design   *synth.DesignJSON  `json:"design"`
+	Achieved *networks.Analysis `json:"achieved"`
+	Met      bool               `json:"met"`
+	Feasible bool               `json:"feasible"`
+	Parts    []synth.Choice     `json:"parts"`
+	Checks   []synth.Check      `json:"checks"`
+	Changes  []synth.Change     `json:"changes"`
+}
+
+func nonNil(c []synth.Change) []synth.Change {
+	if c == nil {
+		return []synth.Change{}
+	}
+	return c
+}
+
+// applySynthFlags lays the flags that were given over the problem.
+func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error {
+	set := cmd.Flags().Changed
+	value := func(name, s, what string) (*float64, error) {
+		if !set(name) {
+			return nil, nil
+		}
+		v, err := eseries.Parse(s)
+		if err != nil {
+			return nil, usageErrorf("--%s: %v", name, err)
+		}
+		if !(v > 0) {
+			return nil, usageErrorf("--%s %s: %s must be positive, e.g. %s", name, s, what, flagExample[name])
+		}
+		return &v, nil
+	}
+	number := func(name, s string) (*float64, error) {
+		if !set(name) {
+			return nil, nil
+		}
+		v, err := strconv.ParseFloat(strings.TrimSpace(s), 64)
+		if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
+			return nil, usageErrorf("--%s %q: give a plain number, e.g. %s", name, s, flagExample[name])
+		}
+		return &v, nil
+	}
+	var err error
+	t := &p.Targets
+	if v, e := value("scoop-hz", f.scoopHz, "the scoop frequency"); e != nil {
+		return e
+	} else if v != nil {
+		t.ScoopHz = v
+	}
+	if v, e := number("depth", f.depth); e != nil {
+		return e
+	} else if v != nil {
+		if !(*v < 0) {
+			return usageErrorf("--depth %s: a scoop's depth is negative (a dip below the shoulders), e.g. -10", f.depth)
+		}
+		t.DepthDB = v
+	}
+	if v, e := number("balance", f.balance); e != nil {
+		return e
+	} else if v != nil {
+		t.BalanceDB = v
+	}
+	if v, e := number("at", f.at); e != nil {
+		return e
+	} else if v != nil {
+		if err := parsePosition("at", *v); err != nil {
+			return err
+		}
+		t.At = v
+	}
+	if v, e := value("corner", f.corner, "the corner"); e != nil {
+		return e
+	} else if v != nil {
+		t.CornerHz = v
+	}
+	if set("source") {
+		v, err := eseries.Parse(f.source)
+		if err != nil || v < 0 {
+			return usageErrorf("--source %q: give the driving stage's output impedance, e.g. 6.8k or 0", f.source)
+		}
+		s := networks.Source{}
+		if p.Source != nil {
+			s = *p.Source
+		}
+		s.Impedance = v
+		p.Source = &s
+	}
+	if set("load") || set("load-c") {
+		l := networks.DefaultLoad
+		switch {
+		case p.Load != nil:
+			l = *p.Load
+		case f.from != "":
+			// Filled in from the design below, keeping what is not given.
+			d, err := loadDesign(f.from)
+			if err != nil {
+				return err
+			}
+			l = d.Load
+		}
+		if set("load") {
+			if strings.EqualFold(strings.TrimSpace(f.load), "open") {
+				l.R = math.Inf(1)
+			} else if l.R, err = eseries.Parse(f.load); err != nil || !(l.R > 0) {
+				return usageErrorf("--load %q: give the load resistance, e.g. 1M, or open", f.load)
+			}
+		}
+		if set("load-c") {
+			if l.C, err = eseries.Parse(f.loadC); err != nil || l.C < 0 {
+				return usageErrorf("--load-c %q: give the load capacitance, e.g. 470p, or 0", f.loadC)
+			}
+		}
+		p.Load = &l
+	}
+	if set("filters") {
+		if f.filters < 0 || f.filters > 32 {
+			return usageErrorf("--filters %d: give a number of sections from 0 to 32", f.filters)
+		}
+		n := f.filters
+		p.Filters = &n
+	}
+	if set("resistors") {
+		if p.Parts.Resistors, err = flagSet("resistors", f.resistors); err != nil {
+			return err
+		}
+	}
+	if set("capacitors") {
+		if p.Parts.Capacitors, err = flagSet("capacitors", f.capacitors); err != nil {
+			return err
+		}
+	}
+	if set("pots") {
+		if p.Parts.Pots, err = parseList("pots", f.pots); err != nil {
+			return err
+		}
+	}
+	if set("stock") {
+		st, err := synth.LoadStock(f.stock)
+		if err != nil {
+			return badInput(err)
+		}
+		p.Parts.Stock = st
+	}
+	if set("free") {
+		p.Free = nil
+		for _, name := range strings.Split(f.free, ",") {
+			if name = strings.TrimSpace(name); name != "" {
+				p.Free = append(p.Free, name)
+			}
+		}
+		if len(p.Free) == 0 {
+			return usageErrorf("--free: no part named: give part names separated by commas, e.g. lowpass.c,highpass.c")
+		}
+	}
+	if set("max-changes") {
+		if f.maxChanges < 0 {
+			return usageErrorf("--max-changes %d: give a number of parts, 1 or more (0: no limit)", f.maxChanges)
+		}
+		p.MaxChanges = f.maxChanges
+	}
+	return nil
+}
+
+var flagExample = map[string]string{
+	"scoop-hz": "800 or 1.2k", "corner": "5k", "depth": "-10", "balance": "0 or +2", "at": "0.5",
+}
+
+// flagSet reads a series name or a comma list of values.
+func flagSet(name, s string) (eseries.Set, error) {
+	if se, err := eseries.SeriesByName(s); err == nil {
+		return se, nil
+	}
+	if w := strings.ToUpper(strings.TrimSpace(s)); !strings.Contains(w, ",") && (strings.HasPrefix(w, "E") || !strings.ContainsAny(w, "0123456789")) {
+		return nil, usageErrorf("--%s %q: give a series (%s) or values separated by commas, e.g. 1k,4.7k,10k",
+			name, s, strings.Join(eseries.SeriesNames(), ", "))
+	}
+	vs, err := parseList(name, s)
+	if err != nil {
+		return nil, err
+	}
+	l, err := eseries.NewList(vs)
+	if err != nil {
+		return nil, usageErrorf("--%s: %v", name, err)
+	}
+	return l, nil
+}
+
+// checkPlotName refuses a plot file the plot could not be written to.
+func checkPlotName(path string, inputs ...string) error {
+	ext := strings.ToLower(path[strings.LastIndexByte(path, '.')+1:])
+	if !strings.Contains(path, ".") || ext != "png" && ext != "svg" {
+		return usageErrorf("plot file %s: the name must end in .png or .svg", path)
+	}
+	return checkOutput(path, inputs...)
+}
+
+// writeSynthReport prints the parts table, the targets table and, when
+// re-voicing, the swaps.
+func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
+	d := res.Design
+	fmt.Fprintf(w, "%s: %s, %s, band %s–%s\n\n", designTitle(d), describeDesign(d), sections(len(d.Filters)), hz(d.Band.From), hz(d.Band.To))
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	if revoice {
+		fmt.Fprintln(tw, "part\trole\twas\tideal\tchosen\tfrom\t")
+	} else {
+		fmt.Fprintln(tw, "part\trole\tideal\tchosen\tfrom\t")
+	}
+	for _, c := range res.Parts {
+		unit := "Ω"
+		if c.Kind == networks.PartCapacitor {
+			unit = "F"
+		}
+		ideal := withUnit(c.Ideal, 4, unit)
+		if !c.Free {
+			ideal = "—"
+		}
+		if revoice {
+			was := "new"
+			if c.Original > 0 {
+				was = withUnit(c.Original, 3, unit)
+			}
+			fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t\n", c.Name, c.Role, was, ideal, withUnit(c.Chosen, 3, unit), c.Set)
+			continue
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t\n", c.Name, c.Role, ideal, withUnit(c.Chosen, 3, unit), c.Set)
+	}
+	tw.Flush()
+	fmt.Fprintln(w)
+
+	at := synth.DefaultAt
+	if res.Targets.At != nil {
+		at = *res.Targets.At
+	}
+	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "target\twanted\tideal parts\terror\tchosen parts\terror\t")
+	for _, c := range res.Checks {
+		name := c.Name
+		if strings.HasPrefix(name, "scoop") {
+			name += " (knob " + posLabel(at) + ")"
+		} else {
+			name += " (knob 1)"
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t\n", name, figure(c.Unit, c.Wanted, true),
+			figure(c.Unit, c.Ideal, c.IdealFound), checkError(c.Unit, c.IdealError, c.IdealFound, c.IdealMet, synth.IdealTolerance),
+			figure(c.Unit, c.Achieved, c.Found), checkError(c.Unit, c.Error, c.Found, c.Met, synth.PartsTolerance))
+	}
+	tw.Flush()
+	fmt.Fprintf(w, "\ngain at 1 kHz (knob 0.5): ideal %s, chosen %s\n", db(res.IdealMetrics.Gain1kDB), db(res.Metrics.Gain1kDB))
+	fmt.Fprintf(w, "tolerances: ideal parts %.1f %% and %.1f dB, chosen parts %.0f %% and %.0f dB (* marks a miss)\n",
+		100*synth.IdealTolerance.Freq, synth.IdealTolerance.Level, 100*synth.PartsTolerance.Freq, synth.PartsTolerance.Level)
+
+	if revoice {
+		fmt.Fprintln(w)
+		if len(res.Changes) == 0 {
+			fmt.Fprintln(w, "no part needs to change")
+		} else {
+			fmt.Fprintf(w, "swap %d %s:\n", len(res.Changes), plural(len(res.Changes), "part", "parts"))
+			for _, ch := range res.Changes {
+				unit := "Ω"
+				if strings.HasSuffix(ch.Part, ".c") {
+					unit = "F"
+				}
+				was := "(new)"
+				if ch.From > 0 {
+					was = withUnit(ch.From, 3, unit)
+				}
+				fmt.Fprintf(w, "  %s (%s): %s → %s\n", ch.Part, ch.Role, was, withUnit(ch.To, 3, unit))
+			}
+		}
+	}
+	if !res.Met {
+		fmt.Fprintln(w)
+		fmt.Fprintln(w, "not met:")
+		for _, c := range res.Checks {
+			if !c.Met {
+				fmt.Fprintf(w, "  %s\n", missLine(c))
+			}
+		}
+		if !res.Feasible {
+			fmt.Fprintln(w, "the ideal parts miss too: these targets ask for more than the network, band and surroundings can give;")
+			fmt.Fprintln(w, "the ideal column shows the nearest achievable figures")
+		}
+	}
+}
+
+func sections(n int) string {
+	switch n {
+	case 0:
+		return "no filter sections"
+	case 1:
+		return "1 filter section"
+	}
+	return fmt.Sprintf("%d filter sections", n)
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
+}
+
+// figure prints a target or achieved figure.
+func figure(unit string, v float64, found bool) string {
+	if !found {
+		return "none"
+	}
+	if unit == "Hz" {
+		return hz(v)
+	}
+	return db(v)
+}
+
+// checkError prints an error: relative for frequencies, dB for levels,
+// with * where it is beyond the tolerance.
+func checkError(unit string, e float64, found, met bool, tol synth.Tolerance) string {
+	if !found {
+		return "*"
+	}
+	var s string
+	if unit == "Hz" {
+		s = fmt.Sprintf("%+.2f %%", 100*e)
+	} else {
+		s = fmt.Sprintf("%+.2f dB", e)
+	}
+	if !met {
+		s += " *"
+	}
+	return s
+}
+
+// missLine says which target is missed and by how much, and the nearest
+// achievable figure.
+func missLine(c synth.Check) string {
+	what := func(v float64, found bool) string {
+		if !found && c.Key == "targets.corner_hz" {
+			return "no corner below 10 × band top"
+		}
+		if !found {
+			return "no scoop"
+		}
+		return figure(c.Unit, v, true)
+	}
+	by := ""
+	if c.Found {
+		if c.Unit == "Hz" {
+			by = fmt.Sprintf(", off by %+.1f %%", 100*c.Error)
+		} else {
+			by = fmt.Sprintf(", off by %+.2f dB", c.Error)
+		}
+	}
+	return fmt.Sprintf("%s: wanted %s, chosen parts give %s%s; nearest achievable (ideal parts) %s",
+		c.Name, figure(c.Unit, c.Wanted, true), what(c.Achieved, c.Found), by, what(c.Ideal, c.IdealFound))
+}
+
+// unmetMessage is the one-line error for exit status 3.
+func unmetMessage(res *synth.Result) string {
+	var missed []string
+	for _, c := range res.Checks {
+		if !c.Met {
+			missed = append(missed, c.Name)
+		}
+	}
+	msg := "targets not met: " + strings.Join(missed, ", ")
+	if !res.Feasible {
+		msg += " (beyond what this network can give; see the nearest achievable figures above)"
+	} else {
+		msg += " (the ideal parts meet them: try a finer series or more stock)"
+	}
+	return msg
+}
+
+// plotSynth draws the chosen design at the standard knob positions with the
+// targets: the scoop as a cross at the wanted frequency and level on the
+// measured curve's shoulders, the corner as a dashed line.
+func plotSynth(res *synth.Result, path string, inputs ...string) error {
+	d := res.Design
+	b := &bode{
+		Title:   "synthesized: " + designTitle(d),
+		Caption: describeDesign(d),
+		Range:   d.Band,
+		Curves:  designCurves(d, networks.DefaultPositions, false),
+	}
+	t := res.Targets
+	if t.ScoopHz != nil && res.Metrics.ScoopFound {
+		at := synth.DefaultAt
+		if t.At != nil {
+			at = *t.At
+		}
+		c := d.Chain(at)
+		k := c.Compile()
+		s := res.Metrics.Scoop
+		shoulders := k.GainDB(s.Hz) - s.DepthDB
+		b.Targets = append(b.Targets, target{Label: fmt.Sprintf("scoop target (knob %s)", posLabel(at)),
+			Hz: *t.ScoopHz, DB: shoulders + *t.DepthDB})
+	}
+	if t.CornerHz != nil && *t.CornerHz < d.Band.To*10 {
+		b.Targets = append(b.Targets, target{Label: "corner target (knob 1)", Hz: *t.CornerHz, DB: math.NaN()})
+	}
+	if t.CornerHz != nil && *t.CornerHz > d.Band.To {
+		b.Range.To = math.Min(*t.CornerHz*1.5, 10*d.Band.To)
+	}
+	return b.render(path, inputs...)
+}

@@ -1,0 +1,44 @@
+package synth
+
+import (
+	"testing"
+
+	"tonewright/networks"
+)
+
+// BenchmarkSolve is the default synthesis: E24 resistors, E12 capacitors,
+// the common pots, two filter sections, behind a 6.8k stage into 1 MΩ
+// (an invented scenario). The goal is under 1 s per operation on one core:
+// go test -bench Solve -cpu 1 ./synth/
+func BenchmarkSolve(b *testing.B) {
+	p := &Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-10.0), CornerHz: ptr(10e3)},
+		Source: &networks.Source{Impedance: 6.8e3}}
+	b.ReportAllocs()
+	evals := 0
+	for i := 0; i < b.N; i++ {
+		r, err := Solve(p, Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		evals = r.Evaluations
+	}
+	b.ReportMetric(float64(evals), "evals/op")
+}
+
+// BenchmarkObjective is one evaluation of the objective: the scoop, the
+// corner and the gain at 1 kHz of a candidate. It must not allocate.
+func BenchmarkObjective(b *testing.B) {
+	p := &Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-10.0), CornerHz: ptr(10e3)},
+		Source: &networks.Source{Impedance: 6.8e3}}
+	s, _ := p.Parts.resolve()
+	base, _ := p.design()
+	g, _ := p.goal(base)
+	vars, _ := p.variables(base, s)
+	e := newEvaluator(base.Clone(), g)
+	e.vars = bind(vars, e.d)
+	vals := []float64{100e3, 10e-9, 2.2e-9, 47e3, 250e3, 22e3, 1e-9}
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		e.at(vals)
+	}
+}

@@ -1,0 +1,38 @@
+// Package synth finds the parts of a blend tone network and its RC low-pass
+// sections from the voice wanted: the depth, frequency and balance of the mid
+// scoop at one knob position, the output corner at knob 1, and the
+// impedances around the network (the driving stage's output impedance, the
+// load, an optional level pot).
+//
+// A Problem holds the targets, the surroundings and the parts allowed (an
+// IEC 60063 series, an explicit list or a stock file); ParseTargets reads one
+// from a targets file. Solve searches in two stages.
+//
+// The continuous stage works in log space on every unknown at once, because
+// the parts interact through loading. It seeds the search from the physics:
+// the closed form of the ideal blend network (IdealNotch), the legs'
+// dividers at the centre for the balance, and the ladder's corner
+// (LadderTau), at several impedance levels per pot value; it corrects the
+// best seeds' balance with the true metric, adds a few seeded random starts,
+// refines the best starts of distinct impedance levels with Nelder–Mead and
+// polishes the best. The objective is the error of each metric, exactly as
+// package networks defines it, in units of IdealTolerance through a
+// pseudo-Huber loss (squared near the target, linear far away, so that one
+// unreachable target does not drag the others), plus a small tie-break
+// toward the least insertion loss at 1 kHz at knob 0.5. Where a candidate
+// has no scoop, the levels at the target frequency keep the slope.
+//
+// The discrete stage snaps the ideal values to the allowed ones jointly:
+// every combination of the members just below and just above each ideal
+// value, then single-part (and, when those stall, two-part) moves to the
+// neighbouring members until none improves. If that misses the tolerance
+// while the ideal meets it, the parts are also fixed one at a time, coarsest
+// set first, re-optimising the rest, and the better result is kept.
+//
+// Re-voicing starts from an existing design (Problem.From) and may limit
+// which parts change (Problem.Free) and how many (Problem.MaxChanges); the
+// Result lists the swaps.
+//
+// Results are deterministic: the same Problem and Options give the same
+// Result on any machine and any number of cores.
+package synth

@@ -1,0 +1,266 @@
+package synth
+
+import (
+	"math"
+
+	"tonewright/eseries"
+	"tonewright/networks"
+)
+
+// Metrics are the figures a synthesis aims at, measured on one design with
+// networks' definitions: the scoop at the targets' knob position, the
+// corner at knob 1 and the gain at 1 kHz at knob 0.5.
+type Metrics struct {
+	Scoop       networks.Scoop // with ScoopFound false: the levels at the target frequency
+	ScoopFound  bool
+	CornerHz    float64 // with CornerFound false: 0
+	CornerFound bool
+	Gain1kDB    float64 // at knob 0.5
+}
+
+// goal is a resolved set of targets.
+type goal struct {
+	at                 float64
+	scoop              bool
+	hz, depth, balance float64
+	corner             bool
+	cornerHz           float64
+}
+
+// tieBreak weighs the insertion loss at 1 kHz (dB) against the squared
+// target errors, which are in units of IdealTolerance: 1 dB of loss counts
+// as much as a third of the tolerance in one target, so at the optimum the
+// tie-break moves each figure by a few hundredths of its tolerance.
+const tieBreak = 0.1
+
+// noScoop is added to the cost of a curve with no interior minimum: as much
+// as a 1 dB error.
+const noScoop = 100
+
+// boundWeight is the penalty per squared natural-log unit by which a
+// continuous value leaves its range.
+const boundWeight = 1e4
+
+// variable is one unknown of the search: a part, or the tied parts of the
+// identical filter sections.
+type variable struct {
+	name     string   // lowpass.r, filters.c, …
+	role     string   // for tables
+	parts    []string // the design's part names it sets
+	kind     networks.PartKind
+	slots    []*float64 // where it writes in the evaluator's design
+	set      eseries.Set
+	setName  string
+	lo, hi   float64 // continuous bounds, natural log
+	original float64 // the From design's value; 0 when fresh
+}
+
+// evaluator measures candidate designs. It owns a working design whose part
+// values the variables write, and reuses its chain, compiled form and meter,
+// so an evaluation does not allocate. It is not safe for concurrent use.
+type evaluator struct {
+	d     *networks.Design
+	vars  []variable
+	goal  goal
+	meter *networks.Meter
+	chain networks.Chain
+	level networks.Level
+	k     networks.Compiled
+	evals int
+
+	progress func()
+}
+
+func newEvaluator(d *networks.Design, g goal) *evaluator {
+	e := &evaluator{d: d, goal: g, meter: networks.NewMeter(d.Band)}
+	return e
+}
+
+// slot returns where the working design keeps the named part's value.
+func slot(d *networks.Design, name string) *float64 {
+	switch name {
+	case "lowpass.r":
+		return &d.Tone.Lowpass.R
+	case "lowpass.c":
+		return &d.Tone.Lowpass.C
+	case "highpass.c":
+		return &d.Tone.Highpass.C
+	case "highpass.r":
+		return &d.Tone.Highpass.R
+	case "pot":
+		return &d.Tone.Pot.Value
+	case "level":
+		if d.Level != nil {
+			return &d.Level.Pot.Value
+		}
+		return nil
+	}
+	for i := range d.Filters {
+		switch name {
+		case filterPart(i, "r"):
+			return &d.Filters[i].R
+		case filterPart(i, "c"):
+			return &d.Filters[i].C
+		}
+	}
+	return nil
+}
+
+// compile builds the working design's chain at blend position p into e.k.
+func (e *evaluator) compile(p float64) {
+	d := e.d
+	c := &e.chain
+	c.Source = d.Source
+	c.Blend = networks.Blend{Lowpass: d.Tone.Lowpass, Highpass: d.Tone.Highpass,
+		Pot: networks.Pot{Value: d.Tone.Pot.Value, Taper: d.Tone.Pot.Taper, Position: p}}
+	c.Filters = d.Filters
+	c.Level = nil
+	if d.Level != nil {
+		e.level.Pot = networks.Pot{Value: d.Level.Pot.Value, Taper: d.Level.Pot.Taper, Position: d.Level.Position}
+		c.Level = &e.level
+	}
+	c.Load = d.Load
+	c.CompileInto(&e.k)
+}
+
+// measure fills m with the working design's metrics. Where the curve has
+// no scoop it measures the levels at the target frequency instead, and
+// where the gain does not fall 3 dB by 10 × band top it leaves CornerFound
+// false and records in m.CornerHz a surrogate (see cornerSurrogate).
+func (e *evaluator) measure(m *Metrics) {
+	e.evals++
+	if e.progress != nil && e.evals%64 == 0 {
+		e.progress()
+	}
+	g := &e.goal
+	f := g.hz
+	if !g.scoop {
+		f = math.Sqrt(e.d.Band.From * e.d.Band.To)
+	}
+	e.compile(g.at)
+	m.Scoop, m.ScoopFound = e.meter.ScoopOrLevelsAt(&e.k, f)
+	if g.at == 0.5 {
+		m.Gain1kDB = networks.Gain1k(&e.k)
+	}
+	if g.at != 1 {
+		e.compile(1)
+	}
+	m.CornerHz, m.CornerFound = e.meter.Corner(&e.k)
+	if !m.CornerFound {
+		m.CornerHz = e.cornerSurrogate()
+	}
+	if g.at != 0.5 {
+		e.compile(0.5)
+		m.Gain1kDB = networks.Gain1k(&e.k)
+	}
+}
+
+// cornerSurrogate gives the search a slope where the knob-1 curve does not
+// fall 3 dB by 10 × band top: 10 × band top, moved up by how far the fall
+// there is short of 3 dB (the gain at band top against the band's centre).
+// e.k must hold the knob-1 chain.
+func (e *evaluator) cornerSurrogate() float64 {
+	b := e.d.Band
+	top := 10 * b.To
+	drop := e.k.GainDB(math.Sqrt(b.From*b.To)) - e.k.GainDB(top)
+	return top * math.Exp(0.1*math.Max(0, 3-drop))
+}
+
+// cost is the objective: the errors in units of IdealTolerance through
+// loss (squared near the targets), plus the tie-break on insertion loss.
+func (e *evaluator) cost(m *Metrics) float64 {
+	g := &e.goal
+	c := 0.0
+	if g.scoop && !m.ScoopFound {
+		// The levels at the target frequency keep a slope; the penalty
+		// keeps a curve without a dip from ever beating one with it.
+		c += noScoop
+	}
+	if g.scoop {
+		c += loss(math.Log(m.Scoop.Hz/g.hz)/IdealTolerance.Freq) +
+			loss((m.Scoop.DepthDB-g.depth)/IdealTolerance.Level) +
+			loss((m.Scoop.BalanceDB-g.balance)/IdealTolerance.Level)
+	}
+	if g.corner {
+		c += loss(math.Log(m.CornerHz/g.cornerHz) / IdealTolerance.Freq)
+	}
+	return c - tieBreak*m.Gain1kDB
+}
+
+// lossScale is where loss turns from squared to linear, in units of
+// IdealTolerance: ten of them, the chosen parts' tolerance (5 %, 1 dB).
+const lossScale = 10
+
+// loss is the pseudo-Huber loss of an error e in tolerance units: e² near
+// zero, so the figures near the targets are weighed as squared errors, and
+// growing only linearly beyond lossScale, so that a target the network
+// cannot reach does not drag the others away from theirs.
+func loss(e float64) float64 {
+	return 2 * lossScale * lossScale * (math.Sqrt(1+sq(e/lossScale)) - 1)
+}
+
+func sq(x float64) float64 { return x * x }
+
+// setLog writes the variables' values exp(x[i]), clamped to their bounds,
+// and returns the penalty for leaving them.
+func (e *evaluator) setLog(x []float64) float64 {
+	pen := 0.0
+	for i := range e.vars {
+		v := &e.vars[i]
+		xi := x[i]
+		if xi < v.lo {
+			pen += sq(v.lo - xi)
+			xi = v.lo
+		} else if xi > v.hi {
+			pen += sq(xi - v.hi)
+			xi = v.hi
+		}
+		val := math.Exp(xi)
+		for _, s := range v.slots {
+			*s = val
+		}
+	}
+	return boundWeight * pen
+}
+
+// setValues writes the variables' values as given.
+func (e *evaluator) setValues(vals []float64) {
+	for i := range e.vars {
+		for _, s := range e.vars[i].slots {
+			*s = vals[i]
+		}
+	}
+}
+
+// values reads the variables' current values.
+func (e *evaluator) values(dst []float64) []float64 {
+	dst = dst[:0]
+	for i := range e.vars {
+		dst = append(dst, *e.vars[i].slots[0])
+	}
+	return dst
+}
+
+// f is the continuous objective on log values.
+func (e *evaluator) f(x []float64) float64 {
+	pen := e.setLog(x)
+	var m Metrics
+	e.measure(&m)
+	c := e.cost(&m) + pen
+	if math.IsNaN(c) {
+		return math.Inf(1)
+	}
+	return c
+}
+
+// at returns the cost of the design with the variables at vals.
+func (e *evaluator) at(vals []float64) float64 {
+	e.setValues(vals)
+	var m Metrics
+	e.measure(&m)
+	c := e.cost(&m)
+	if math.IsNaN(c) {
+		return math.Inf(1)
+	}
+	return c
+}

@@ -1,0 +1,167 @@
+package synth
+
+import (
+	"math"
+
+	"tonewright/networks"
+)
+
+// Result is a finished synthesis.
+type Result struct {
+	Targets Targets // as resolved: defaults and kept figures filled in
+
+	Ideal  *networks.Design // the continuous optimum: exact values
+	Design *networks.Design // the chosen parts
+
+	IdealMetrics Metrics // of Ideal
+	Metrics      Metrics // of Design
+
+	Parts   []Choice // every part of Design, in signal order
+	Checks  []Check  // every target
+	Changes []Change // re-voicing: the parts to swap
+
+	// Feasible reports whether the continuous optimum meets every target
+	// within IdealTolerance; when it does not, the targets ask for more
+	// than the topology, band and surroundings can give, and IdealMetrics
+	// are the nearest achievable figures.
+	Feasible bool
+	// Met reports whether the chosen parts meet every target within the
+	// tolerance (Options.Tolerance, by default PartsTolerance).
+	Met bool
+
+	Evaluations int // of the objective, in all
+}
+
+// Choice is one part of the chosen design.
+type Choice struct {
+	Name     string            `json:"name"` // networks.Design.Parts name: lowpass.r, filter2.c, …
+	Role     string            `json:"role"`
+	Kind     networks.PartKind `json:"-"`
+	Ideal    float64           `json:"ideal"` // the continuous optimum's value
+	Chosen   float64           `json:"chosen"`
+	Set      string            `json:"from"`               // E24, stock, list, common pots, unchanged; "given" when not free
+	Original float64           `json:"original,omitempty"` // the From design's value; 0 when fresh or a new part
+	Free     bool              `json:"free"`
+}
+
+// Check is one target against what the ideal and the chosen designs
+// achieve. Frequency errors are relative ((achieved − wanted)/wanted),
+// level errors in dB (achieved − wanted).
+type Check struct {
+	Name   string // "scoop frequency", "scoop depth", "scoop balance", "corner"
+	Key    string // the targets-file key: targets.scoop.hz, …
+	Unit   string // "Hz" or "dB"
+	Wanted float64
+
+	Ideal, Achieved   float64
+	IdealFound, Found bool // false: no scoop, or no corner below 10 × band top
+	IdealError, Error float64
+	IdealMet, Met     bool
+}
+
+// Change is a part a re-voicing swaps.
+type Change struct {
+	Part string  `json:"part"`
+	Role string  `json:"role"`
+	From float64 `json:"from"` // 0 for a part the original design did not have
+	To   float64 `json:"to"`
+}
+
+func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, evals int) *Result {
+	res := &Result{Targets: g.targets(), Evaluations: evals}
+	res.Ideal, res.IdealMetrics = r.build(base, g, r.ideal)
+	res.Design, res.Metrics = r.build(base, g, r.chosen)
+	res.Ideal.Name, res.Design.Name = base.Name, base.Name
+
+	free := map[string]*variable{}
+	for i := range r.vars {
+		for _, name := range r.vars[i].parts {
+			free[name] = &r.vars[i]
+		}
+	}
+	ideal := res.Ideal.Parts()
+	var orig map[string]float64
+	if p.From != nil {
+		orig = map[string]float64{}
+		for _, pt := range p.From.Parts() {
+			orig[pt.Name] = pt.Value
+		}
+	}
+	for i, pt := range res.Design.Parts() {
+		c := Choice{Name: pt.Name, Role: pt.Role, Kind: pt.Kind, Ideal: ideal[i].Value, Chosen: pt.Value, Set: "given"}
+		if v, ok := free[pt.Name]; ok {
+			c.Free, c.Set = true, v.setName
+			if same(pt.Value, v.original) {
+				c.Set = "unchanged"
+			}
+		} else {
+			c.Ideal = pt.Value
+		}
+		if orig != nil {
+			c.Original = orig[pt.Name]
+			if !same(c.Chosen, c.Original) && pt.Name != "level" {
+				res.Changes = append(res.Changes, Change{Part: pt.Name, Role: pt.Role, From: c.Original, To: c.Chosen})
+			}
+		}
+		res.Parts = append(res.Parts, c)
+	}
+
+	res.Checks = checks(g, &res.IdealMetrics, &res.Metrics, tol)
+	res.Feasible, res.Met = true, true
+	for _, c := range res.Checks {
+		res.Feasible = res.Feasible && c.IdealMet
+		res.Met = res.Met && c.Met
+	}
+	return res
+}
+
+// build writes vals into a copy of base and measures it.
+func (r *run) build(base *networks.Design, g goal, vals []float64) (*networks.Design, Metrics) {
+	e := newEvaluator(base.Clone(), g)
+	e.vars = bind(r.vars, e.d)
+	e.setValues(vals)
+	var m Metrics
+	e.measure(&m)
+	if !m.CornerFound {
+		m.CornerHz = 0
+	}
+	return e.d, m
+}
+
+// checks compares the metrics with the goal.
+func checks(g goal, ideal, got *Metrics, tol Tolerance) []Check {
+	var cs []Check
+	freq := func(name, key string, want, a float64, af bool, b float64, bf bool) {
+		c := Check{Name: name, Key: key, Unit: "Hz", Wanted: want, Ideal: a, IdealFound: af, Achieved: b, Found: bf}
+		if af {
+			c.IdealError = a/want - 1
+			c.IdealMet = math.Abs(math.Log(a/want)) <= math.Log1p(IdealTolerance.Freq)
+		}
+		if bf {
+			c.Error = b/want - 1
+			c.Met = math.Abs(math.Log(b/want)) <= math.Log1p(tol.Freq)
+		}
+		cs = append(cs, c)
+	}
+	level := func(name, key string, want, a float64, af bool, b float64, bf bool) {
+		c := Check{Name: name, Key: key, Unit: "dB", Wanted: want, Ideal: a, IdealFound: af, Achieved: b, Found: bf}
+		if af {
+			c.IdealError = a - want
+			c.IdealMet = math.Abs(c.IdealError) <= IdealTolerance.Level
+		}
+		if bf {
+			c.Error = b - want
+			c.Met = math.Abs(c.Error) <= tol.Level
+		}
+		cs = append(cs, c)
+	}
+	if g.scoop {
+		freq("scoop frequency", "targets.scoop.hz", g.hz, ideal.Scoop.Hz, ideal.ScoopFound, got.Scoop.Hz, got.ScoopFound)
+		level("scoop depth", "targets.scoop.depth_db", g.depth, ideal.Scoop.DepthDB, ideal.ScoopFound, got.Scoop.DepthDB, got.ScoopFound)
+		level("scoop balance", "targets.scoop.balance_db", g.balance, ideal.Scoop.BalanceDB, ideal.ScoopFound, got.Scoop.BalanceDB, got.ScoopFound)
+	}
+	if g.corner {
+		freq("corner", "targets.corner_hz", g.cornerHz, ideal.CornerHz, ideal.CornerFound, got.CornerHz, got.CornerFound)
+	}
+	return cs
+}

@@ -1,0 +1,309 @@
+package synth
+
+import (
+	"math"
+	"math/rand/v2"
+
+	"tonewright/networks"
+)
+
+// seedStream is the second word of the PCG state, fixed so that
+// Options.Seed alone picks the random starts.
+const seedStream = 0x746f6e6577726974
+
+// Solve synthesises the design. Errors are about the problem itself (a
+// missing target, an unknown part name, an empty part set) and are
+// *networks.FieldError values naming the key; targets that cannot be met
+// are not errors but a Result with Met false.
+func Solve(p *Problem, opt Options) (*Result, error) {
+	s, err := p.Parts.resolve()
+	if err != nil {
+		return nil, p.place(err)
+	}
+	base, err := p.design()
+	if err != nil {
+		return nil, p.place(err)
+	}
+	g, err := p.goal(base)
+	if err != nil {
+		return nil, p.place(err)
+	}
+	vars, err := p.variables(base, s)
+	if err != nil {
+		return nil, p.place(err)
+	}
+	tol := opt.Tolerance
+	if tol == (Tolerance{}) {
+		tol = PartsTolerance
+	}
+	rng := rand.New(rand.NewPCG(opt.Seed, seedStream))
+
+	pr := &progress{f: opt.Progress}
+	var best *run
+	limited := p.From != nil && p.MaxChanges > 0 && p.MaxChanges < len(vars)
+	subsets := [][]int(nil)
+	if limited {
+		subsets = choose(len(vars), p.MaxChanges)
+	}
+	switch {
+	case !limited:
+		pr.total = runEstimate(len(vars))
+		best = solveRun(base, g, vars, p.From == nil, s, rng, pr)
+	case subsets == nil:
+		pr.total = greedyRuns(len(vars), p.MaxChanges) * runEstimate(p.MaxChanges)
+		best = greedy(base, g, vars, p.MaxChanges, s, rng, pr)
+	default:
+		pr.total = len(subsets) * runEstimate(p.MaxChanges)
+		for _, sub := range subsets {
+			vs := make([]variable, len(sub))
+			for j, i := range sub {
+				vs[j] = vars[i]
+			}
+			// Ties go to the earlier subset, so the order of the parts
+			// decides, never the scheduling.
+			if r := solveRun(base, g, vs, false, s, rng, pr); best == nil || r.cost < best.cost {
+				best = r
+			}
+		}
+	}
+	pr.done()
+	return best.result(p, base, g, tol, pr.evals), nil
+}
+
+// maxSubsets bounds the exhaustive search over which parts a re-voicing
+// changes; beyond it the parts are chosen greedily, one at a time.
+const maxSubsets = 64
+
+// greedyRuns is the number of runs greedy makes choosing k of n parts.
+func greedyRuns(n, k int) int {
+	runs := 0
+	for i := 0; i < k; i++ {
+		runs += n - i
+	}
+	return runs
+}
+
+// choose returns the index sets of size k out of n, in lexical order, or
+// nil when there are more than maxSubsets of them.
+func choose(n, k int) [][]int {
+	count := 1.0
+	for i := 0; i < k; i++ {
+		count = count * float64(n-i) / float64(i+1)
+	}
+	if count > maxSubsets {
+		return nil
+	}
+	var out [][]int
+	idx := make([]int, k)
+	for i := range idx {
+		idx[i] = i
+	}
+	for {
+		out = append(out, append([]int(nil), idx...))
+		i := k - 1
+		for i >= 0 && idx[i] == n-k+i {
+			i--
+		}
+		if i < 0 {
+			return out
+		}
+		idx[i]++
+		for j := i + 1; j < k; j++ {
+			idx[j] = idx[j-1] + 1
+		}
+	}
+}
+
+// run is one search over a set of variables.
+type run struct {
+	vars   []variable
+	ideal  []float64 // continuous optimum
+	chosen []float64 // allowed values
+	cost   float64   // of the chosen values
+}
+
+// solveRun searches one set of variables: continuous stage from the seeds,
+// then the discrete stage.
+func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *sets, rng *rand.Rand, pr *progress) *run {
+	e := newEvaluator(base.Clone(), g)
+	e.vars = bind(vars, e.d)
+	e.progress = pr.tick
+	var seeds [][]float64
+	var tune tuner
+	if fresh {
+		seeds, tune = freshSeeds(e.d, g, s), tuneBalance
+	} else {
+		seeds = [][]float64{e.values(nil)}
+	}
+	x, _ := continuous(e, seeds, tune, rng)
+	e.setLog(x)
+	ideal := e.values(nil)
+	chosen, cost := discrete(e, ideal)
+	// A second try at the snap, when the joint one misses the tolerance
+	// but the ideal values meet it (else no snap will).
+	if !meets(e, chosen, PartsTolerance) && meets(e, ideal, PartsTolerance) {
+		if c2, f2 := snapSequential(e, ideal); f2 < cost {
+			chosen, cost = c2, f2
+		}
+		e.setValues(chosen)
+	}
+	pr.evals += e.evals
+	pr.cur = 0
+	return &run{vars: vars, ideal: ideal, chosen: chosen, cost: cost}
+}
+
+// greedy chooses up to k parts to change one at a time: each step frees
+// the part whose addition gives the lowest cost.
+func greedy(base *networks.Design, g goal, vars []variable, k int, s *sets, rng *rand.Rand, pr *progress) *run {
+	var picked []int
+	var best *run
+	for len(picked) < k {
+		var stepBest *run
+		stepPick := -1
+		for i := range vars {
+			if containsInt(picked, i) {
+				continue
+			}
+			var vs []variable
+			for _, j := range append(append([]int(nil), picked...), i) {
+				vs = append(vs, vars[j])
+			}
+			r := solveRun(base, g, vs, false, s, rng, pr)
+			if stepBest == nil || r.cost < stepBest.cost {
+				stepBest, stepPick = r, i
+			}
+		}
+		// Each step re-optimises every part picked so far together.
+		picked = append(picked, stepPick)
+		best = stepBest
+	}
+	return best
+}
+
+func containsInt(xs []int, x int) bool {
+	for _, y := range xs {
+		if y == x {
+			return true
+		}
+	}
+	return false
+}
+
+// freshSeeds are the starting points of a fresh synthesis, from the
+// physics: the ideal blend network's time constants (IdealNotch) corrected
+// for the source impedance and the loading of the legs by the pot; for each
+// pot value, one leg's resistance at a few ratios to the pot and the other
+// leg's solved for the wanted balance from the legs' dividers at the
+// centre; and the filter sections' time constant from the ladder's corner
+// (LadderTau) at a few impedance levels. Values outside their ranges are
+// clamped.
+func freshSeeds(d *networks.Design, g goal, s *sets) [][]float64 {
+	zs := d.Source.Impedance
+	tau1, tau2, err := IdealNotch(g.hz, g.depth)
+	if err != nil {
+		tau1, tau2, _ = IdealNotch(1000, -6)
+	}
+	clampR := func(v float64) float64 { return clamp(v, s.resRange) }
+	clampC := func(v float64) float64 { return clamp(v, s.capRange) }
+	par := func(a, b float64) float64 { return a * b / (a + b) }
+	// The shoulders at the centre, ignoring the filters: the upper one is
+	// the high-pass leg and pot against the source, the lower one the
+	// low-pass leg's divider into the pot and R₂ (the wiper halfway).
+	balance := func(r1, r2, pot float64) float64 {
+		hi := 0.5 * par(r2, pot) / (zs + par(r2, pot))
+		lo := (pot/2 + r2) / (zs + r1 + pot + r2)
+		return 20 * math.Log10(hi/lo)
+	}
+	// solve finds the leg resistance in range giving the wanted balance
+	// (bisection in log R; balance falls as R₂ falls and rises with R₁).
+	solve := func(f func(r float64) float64, rising bool) float64 {
+		lo, hi := math.Log(s.resRange[0]), math.Log(s.resRange[1])
+		for i := 0; i < 40; i++ {
+			mid := (lo + hi) / 2
+			if (f(math.Exp(mid)) < g.balance) == rising {
+				lo = mid
+			} else {
+				hi = mid
+			}
+		}
+		return math.Exp((lo + hi) / 2)
+	}
+	potVals := s.pots.(interface{ Values() []float64 }).Values()
+	var tauF float64
+	n := len(d.Filters)
+	if n > 0 && g.corner {
+		tauF = LadderTau(g.cornerHz, n)
+	}
+	var seeds [][]float64
+	for _, pot := range potVals {
+		for _, q := range []float64{10, 3} {
+			leg := clampR(pot / q)
+			r1B := solve(func(r float64) float64 { return balance(r, leg, pot) }, true)
+			r2B := solve(func(r float64) float64 { return balance(leg, r, pot) }, false)
+			for _, legs := range [][2]float64{{r1B, leg}, {leg, r2B}} {
+				r1, r2 := legs[0], legs[1]
+				c1 := clampC(tau1 / par(r1+zs, pot+r2))
+				c2 := clampC(tau2 / (zs + par(r2, pot)))
+				v := []float64{r1, c1, c2, r2, pot}
+				if n == 0 {
+					seeds = append(seeds, v)
+					continue
+				}
+				for _, k := range []float64{10, 3, 1, 0.3} {
+					rf := clampR(k * par(r2, pot))
+					cf := clampC(tauF / rf)
+					if tauF == 0 {
+						cf = s.capRange[0]
+					}
+					seeds = append(seeds, append(append([]float64(nil), v...), rf, cf))
+				}
+			}
+		}
+	}
+	return seeds
+}
+
+func clamp(v float64, r [2]float64) float64 { return math.Min(math.Max(v, r[0]), r[1]) }
+
+// runEstimate is the usual number of evaluations of one run, for progress.
+func runEstimate(nvars int) int {
+	return 120 + perturbations + refineStarts*refineEvals + 2*polishEvals + (1<<min(nvars, 9))*2
+}
+
+// progress forwards evaluation counts to Options.Progress.
+type progress struct {
+	f     func(done, total int)
+	evals int // finished runs
+	cur   int // in the current run, by ticks
+	total int
+}
+
+func (p *progress) tick() {
+	p.cur += 64
+	if p.f != nil {
+		done := p.evals + p.cur
+		if done > p.total {
+			p.total = done + done/10
+		}
+		p.f(done, p.total)
+	}
+}
+
+func (p *progress) done() {
+	if p.f != nil {
+		p.f(p.total, p.total)
+	}
+}
+
+// meets reports whether the variables at vals meet every target within tol.
+func meets(e *evaluator, vals []float64, tol Tolerance) bool {
+	e.setValues(vals)
+	var m Metrics
+	e.measure(&m)
+	for _, c := range checks(e.goal, &m, &m, tol) {
+		if !c.Met {
+			return false
+		}
+	}
+	return true
+}
