@@ -54,7 +54,10 @@ func writeTemp(t *testing.T, name, text string) string {
 	return p
 }
 
-var demoFile = filepath.Join(top, "demo-design.yaml")
+var (
+	demoFile    = filepath.Join(top, "demo-design.yaml")
+	exampleFile = filepath.Join(top, "example-board.yaml") // hand-made, fixed
+)
 
 func TestAnalyzeTable(t *testing.T) {
 	code, out, errs := tw(t, "analyze", demoFile)
@@ -198,7 +201,7 @@ func TestDemoWritesFiles(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
-	for _, f := range []string{"design.yaml", "analysis.txt", "analysis.json", "curves.png"} {
+	for _, f := range []string{"targets.yaml", "design.yaml", "synth.txt", "analysis.txt", "analysis.json", "sweep.txt", "tolerance.txt", "curves.png", "curves-phase.svg", "sweep.png", "tolerance.png"} {
 		p := filepath.Join(dir, f)
 		if _, err := os.Stat(p); err != nil {
 			t.Errorf("demo did not write %s", f)
@@ -207,7 +210,17 @@ func TestDemoWritesFiles(t *testing.T) {
 			t.Errorf("demo output does not list %s", p)
 		}
 	}
-	// The design it wrote is a valid input for the other commands.
+	// What it prints before the list of files is kept in a golden file.
+	golden(t, "demo.txt", out[:strings.Index(out, "wrote:")])
+	// The design it wrote is the committed demo design, and a valid input
+	// for the other commands.
+	if got, want := mustRead(t, filepath.Join(dir, "design.yaml")), mustRead(t, demoFile); !bytes.Equal(got, want) && !*update {
+		t.Errorf("the demo's design differs from %s: regenerate it with the command in DEVELOPERS.md", demoFile)
+	} else if *update {
+		if err := os.WriteFile(demoFile, got, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
 	if code, _, errs := tw(t, "analyze", filepath.Join(dir, "design.yaml")); code != 0 {
 		t.Errorf("analyze of the demo's design: exit %d %s", code, errs)
 	}
@@ -217,10 +230,10 @@ func TestDemoWritesFiles(t *testing.T) {
 func TestBadInput(t *testing.T) {
 	dir := t.TempDir()
 	empty := writeTemp(t, "empty.yaml", "")
-	neg := writeTemp(t, "neg.yaml", strings.Replace(string(mustRead(t, demoFile)), "r: 27k", "r: -27k", 1))
-	band := writeTemp(t, "band.yaml", strings.Replace(string(mustRead(t, demoFile)), "band: {from: 20, to: 20k}", "band: {from: 20k, to: 20}", 1))
-	nan := writeTemp(t, "nan.yaml", strings.Replace(string(mustRead(t, demoFile)), "c: 12n", "c: NaN", 1))
-	inf := writeTemp(t, "inf.yaml", strings.Replace(string(mustRead(t, demoFile)), "c: 12n", "c: Inf", 1))
+	neg := writeTemp(t, "neg.yaml", strings.Replace(string(mustRead(t, exampleFile)), "r: 27k", "r: -27k", 1))
+	band := writeTemp(t, "band.yaml", strings.Replace(string(mustRead(t, exampleFile)), "band: {from: 20, to: 20k}", "band: {from: 20k, to: 20}", 1))
+	nan := writeTemp(t, "nan.yaml", strings.Replace(string(mustRead(t, exampleFile)), "c: 12n", "c: NaN", 1))
+	inf := writeTemp(t, "inf.yaml", strings.Replace(string(mustRead(t, exampleFile)), "c: 12n", "c: Inf", 1))
 	for _, tc := range []struct {
 		args []string
 		want string
@@ -298,11 +311,23 @@ func TestHelpHasExamples(t *testing.T) {
 	}
 }
 
-// The README shows the real analyze table of the demo board.
-func TestReadmeShowsRealTable(t *testing.T) {
+// The README shows the real tables of the demo: the synthesis and the
+// analysis of the chosen design.
+func TestReadmeShowsRealTables(t *testing.T) {
 	readme := string(mustRead(t, "../../README.md"))
-	want := string(mustRead(t, filepath.Join(top, "golden", "analyze-demo.txt")))
-	if !strings.Contains(readme, "```text\n"+want+"```") {
-		t.Error("README's analyze table differs from testdata/golden/analyze-demo.txt: paste the golden file into it")
+	for _, g := range []string{"analyze-demo.txt", "demo-synth.txt"} {
+		want := string(mustRead(t, filepath.Join(top, "golden", g)))
+		if !strings.Contains(readme, "```text\n"+want+"```") {
+			t.Errorf("README differs from testdata/golden/%s: paste the golden file into it", g)
+		}
 	}
+}
+
+// The synth part of the demo's output, as the README shows it.
+func TestDemoSynthTable(t *testing.T) {
+	code, out, errs := tw(t, "synth", "demodata/targets.yaml")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	golden(t, "demo-synth.txt", out)
 }

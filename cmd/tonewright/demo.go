@@ -10,24 +10,31 @@ import (
 	"github.com/spf13/cobra"
 
 	"tonewright/networks"
+	"tonewright/synth"
 )
 
 func init() { register(newDemoCmd) }
 
-// demoDesign is the embedded demo scenario, invented for this tool.
+// demoTargets is the embedded demo scenario, invented for this tool.
 //
-//go:embed demodata/design.yaml
-var demoDesign []byte
+//go:embed demodata/targets.yaml
+var demoTargets []byte
+
+// demoSources are the driving stages the demo sweeps: a buffer, an emitter
+// follower, the board's own stage and a high-gain stage (invented).
+var demoSources = []float64{100, 1e3, 6.8e3, 22e3}
 
 func newDemoCmd(a *app) *cobra.Command {
 	return &cobra.Command{
 		Use:   "demo [DIR]",
 		Short: "Run the whole job on an embedded demo board and write the results to DIR",
-		Long: `demo runs tonewright end to end on an invented demo scenario (a fuzz-style
-board whose gain stage has 6.8 kΩ output impedance, driving a 100 kΩ
-audio-taper level pot into a 1 MΩ amplifier input). It writes the design,
-the analysis table and the plots into DIR (default ./tonewright-demo) and
-prints what it wrote.`,
+		Long: `demo runs tonewright end to end on an invented demo scenario: the tone
+section of a fuzz-style board whose gain stage has 6.8 kΩ output impedance,
+driving a 100 kΩ audio-taper level pot into a 1 MΩ amplifier input. From the
+voice wanted (a scoop 8 dB deep at 700 Hz, a 9 kHz corner) it synthesizes the
+parts in E24/E12 values, analyses and plots the chosen design, sweeps the
+source impedance and runs a tolerance study. It writes everything into DIR
+(default ./tonewright-demo) and prints what it wrote.`,
 		Example: `  tonewright demo
   tonewright demo /tmp/voicing`,
 		Args: func(cmd *cobra.Command, args []string) error {
@@ -52,54 +59,87 @@ prints what it wrote.`,
 	}
 }
 
+// runDemo is the main job: targets → parts → analysis, plots and studies.
 func runDemo(a *app, dir string) error {
-	d, err := networks.ParseDesign(demoDesign, "demo design")
+	p, err := synth.ParseTargets(demoTargets, "demo targets")
 	if err != nil {
-		return fmt.Errorf("embedded demo design: %w", err)
+		return fmt.Errorf("embedded demo targets: %w", err)
 	}
+	res, err := synth.Solve(p, synth.Options{})
+	if err != nil {
+		return fmt.Errorf("synthesizing the demo: %w", err)
+	}
+	d := res.Design
 	var wrote []string
-	put := func(name string, data []byte) error {
+	path := func(name string) string {
 		p := filepath.Join(dir, name)
-		if err := writeFile(p, data); err != nil {
-			return err
-		}
 		wrote = append(wrote, p)
-		return nil
+		return p
 	}
-	if err := put("design.yaml", demoDesign); err != nil {
-		return err
-	}
+	put := func(name string, data []byte) error { return writeFile(path(name), data) }
+
+	var report, table, js, sweep, tol bytes.Buffer
+	writeSynthReport(&report, res, false)
 	an, err := networks.Analyze(d, networks.DefaultPositions)
 	if err != nil {
 		return err
 	}
-	var table bytes.Buffer
 	writeAnalysis(&table, d, an)
-	if err := put("analysis.txt", table.Bytes()); err != nil {
-		return err
-	}
-	var js bytes.Buffer
 	if err := printJSON(&js, an); err != nil {
 		return err
 	}
-	if err := put("analysis.json", js.Bytes()); err != nil {
+	sw, err := networks.Sweep(d, demoSources, nil, networks.DefaultStudyBlend)
+	if err != nil {
 		return err
 	}
-	for _, pl := range []struct {
-		name  string
-		phase bool
-	}{{"curves.png", false}, {"curves-phase.svg", true}} {
-		b := &bode{Title: designTitle(d), Caption: describeDesign(d), Range: d.Band, Curves: designCurves(d, networks.DefaultPositions, pl.phase), Phase: pl.phase}
-		p := filepath.Join(dir, pl.name)
-		if err := b.render(p); err != nil {
+	writeSweep(&sweep, d, sw)
+	tr, err := networks.Tolerance(d, networks.ToleranceSpec{
+		Parts: networks.PartTolerances(d, nil), Trials: 10000, Seed: 1, Blend: networks.DefaultStudyBlend,
+		CurveHz: networks.LogGrid(d.Band.From, d.Band.To, 40),
+	})
+	if err != nil {
+		return err
+	}
+	writeTolerance(&tol, d, tr)
+
+	for _, f := range []struct {
+		name string
+		data []byte
+	}{
+		{"targets.yaml", demoTargets},
+		{"design.yaml", d.YAML()},
+		{"synth.txt", report.Bytes()},
+		{"analysis.txt", table.Bytes()},
+		{"analysis.json", js.Bytes()},
+		{"sweep.txt", sweep.Bytes()},
+		{"tolerance.txt", tol.Bytes()},
+	} {
+		if err := put(f.name, f.data); err != nil {
 			return err
 		}
-		wrote = append(wrote, p)
 	}
-	fmt.Fprintf(a.out, "%s\n", table.String())
+	if err := plotSynth(res, path("curves.png")); err != nil {
+		return err
+	}
+	phase := &bode{Title: designTitle(d), Caption: describeDesign(d), Range: d.Band, Curves: designCurves(d, networks.DefaultPositions, true), Phase: true}
+	if err := phase.render(path("curves-phase.svg")); err != nil {
+		return err
+	}
+	if err := sweepPlot(d, sw, true, false).render(path("sweep.png")); err != nil {
+		return err
+	}
+	if err := tolerancePlot(d, tr).render(path("tolerance.png")); err != nil {
+		return err
+	}
+
+	fmt.Fprintf(a.out, "Synthesis from the demo targets (an invented board):\n\n%s\n", report.String())
+	fmt.Fprintf(a.out, "Analysis of the chosen design:\n\n%s\n", table.String())
 	fmt.Fprintln(a.out, "wrote:")
 	for _, w := range wrote {
 		fmt.Fprintf(a.out, "  %s\n", w)
+	}
+	if !res.Met {
+		return &unmetError{msg: unmetMessage(res)}
 	}
 	return nil
 }
