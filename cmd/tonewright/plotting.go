@@ -131,16 +131,30 @@ func xys(x, y []float64) plotter.XYs {
 	return pts
 }
 
+// checkPlotFile refuses a plot file name before any work is done: it must
+// end in .png or .svg and pass checkOutput.
+func checkPlotFile(path string, inputs ...string) error {
+	if ext := strings.ToLower(filepath.Ext(path)); ext != ".png" && ext != ".svg" {
+		return usageErrorf("plot file %s: the name must end in .png or .svg", path)
+	}
+	return checkOutput(path, inputs...)
+}
+
+// checkPlotFlag is checkPlotFile for the file given with --flag.
+func checkPlotFlag(flag, path string, inputs ...string) error {
+	if err := checkPlotFile(path, inputs...); err != nil {
+		return usageErrorf("--%s: %v", flag, err)
+	}
+	return nil
+}
+
 // render draws the plot and writes it to path as PNG or SVG, chosen by the
 // extension.
 func (b *bode) render(path string, inputs ...string) error {
-	ext := strings.ToLower(filepath.Ext(path))
-	if ext != ".png" && ext != ".svg" {
-		return usageErrorf("plot file %s: the name must end in .png or .svg", path)
-	}
-	if err := checkOutput(path, inputs...); err != nil {
+	if err := checkPlotFile(path, inputs...); err != nil {
 		return err
 	}
+	ext := strings.ToLower(filepath.Ext(path))
 	mag := plot.New()
 	title := b.Title
 	if b.Caption != "" {

@@ -57,7 +57,7 @@ value − value_design.`,
 				return err
 			}
 			if plotPath != "" {
-				if err := checkPlotPath(plotPath, args[0]); err != nil {
+				if err := checkPlotFlag("plot", plotPath, args[0]); err != nil {
 					return err
 				}
 			}
@@ -123,14 +123,6 @@ func parseImpedances(flag, s string, load bool) ([]float64, error) {
 		return nil, usageErrorf("--%s: the list is empty: give %s, separated by commas", flag, forms)
 	}
 	return out, nil
-}
-
-// checkPlotPath refuses a plot file name before any work is done.
-func checkPlotPath(path string, inputs ...string) error {
-	if ext := strings.ToLower(path[strings.LastIndex(path, ".")+1:]); !strings.Contains(path, ".") || (ext != "png" && ext != "svg") {
-		return usageErrorf("--plot %s: the name must end in .png or .svg", path)
-	}
-	return checkOutput(path, inputs...)
 }
 
 // loadLabel names a load resistance, open included.

@@ -125,7 +125,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		}
 	}
 	if f.plot != "" {
-		if err := checkPlotName(f.plot, inputs...); err != nil {
+		if err := checkPlotFlag("plot", f.plot, inputs...); err != nil {
 			return err
 		}
 	}
@@ -372,15 +372,6 @@ func flagSet(name, s string) (eseries.Set, error) {
 		return nil, usageErrorf("--%s: %v", name, err)
 	}
 	return l, nil
-}
-
-// checkPlotName refuses a plot file the plot could not be written to.
-func checkPlotName(path string, inputs ...string) error {
-	ext := strings.ToLower(path[strings.LastIndexByte(path, '.')+1:])
-	if !strings.Contains(path, ".") || ext != "png" && ext != "svg" {
-		return usageErrorf("plot file %s: the name must end in .png or .svg", path)
-	}
-	return checkOutput(path, inputs...)
 }
 
 // writeSynthReport prints the parts table, the targets table and, when

@@ -73,7 +73,7 @@ trials run on all cores; the report depends on --seed only.`,
 				return err
 			}
 			if plotPath != "" {
-				if err := checkPlotPath(plotPath, args[0]); err != nil {
+				if err := checkPlotFlag("plot", plotPath, args[0]); err != nil {
 					return err
 				}
 			}
@@ -122,7 +122,7 @@ trials run on all cores; the report depends on --seed only.`,
 	}
 	c.Flags().StringVar(&resistors, "resistors", "", "tolerance of every resistor in `PERCENT`, e.g. 5% or 1% (default: from its E-series, else 5%)")
 	c.Flags().StringVar(&capacitors, "capacitors", "", "tolerance of every capacitor in `PERCENT`, e.g. 10% (default: from its E-series, else 10%)")
-	c.Flags().StringVar(&pots, "pots", "", "tolerance of every pot's track in `PERCENT`, e.g. 20% (default: from its E-series, else 20%)")
+	c.Flags().StringVar(&pots, "pots", "", "tolerance of every pot's track in `PERCENT`, e.g. 20% (default 20%)")
 	c.Flags().IntVar(&trials, "trials", 10000, "number of simulated builds")
 	c.Flags().Uint64Var(&seed, "seed", 1, "seed of the random draws; the same seed gives the same report")
 	c.Flags().StringVar(&dist, "dist", "uniform", "distribution `NAME` of the draws: uniform (within ± tolerance) or normal (tolerance = 3σ, truncated)")
