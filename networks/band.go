@@ -35,20 +35,20 @@ func (b Band) Check() error {
 	return nil
 }
 
-// LogGrid returns n ≥ 2 frequencies from lo to hi inclusive, evenly spaced in
-// log f, with at least perDecade points per decade.
+// LogGrid returns frequencies from lo to hi inclusive, spaced exactly
+// 1/perDecade of a decade apart from lo (lo·10^(k/perDecade)), with hi
+// added as the last point when the steps do not land on it.
 func LogGrid(lo, hi float64, perDecade int) []float64 {
-	dec := math.Log10(hi / lo)
-	n := int(math.Ceil(dec*float64(perDecade))) + 1
-	if n < 2 {
-		n = 2
+	steps := math.Log10(hi/lo) * float64(perDecade)
+	n := int(math.Floor(steps + 1e-9))
+	g := make([]float64, 0, n+2)
+	for k := 0; k <= n; k++ {
+		g = append(g, lo*math.Pow(10, float64(k)/float64(perDecade)))
 	}
-	g := make([]float64, n)
-	step := dec / float64(n-1)
-	l0 := math.Log10(lo)
-	for i := range g {
-		g[i] = math.Pow(10, l0+step*float64(i))
+	if steps-float64(n) > 1e-9 || len(g) < 2 {
+		g = append(g, hi)
+	} else {
+		g[len(g)-1] = hi
 	}
-	g[0], g[n-1] = lo, hi
 	return g
 }

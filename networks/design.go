@@ -3,6 +3,7 @@ package networks
 import (
 	"fmt"
 	"math"
+	"strings"
 )
 
 // Design is a tone-and-level section as the design file describes it.
@@ -95,6 +96,21 @@ func (d *Design) Validate() error {
 		if !positive(c.v) {
 			return fieldError(c.key, fmt.Errorf("%v must be positive and finite", c.v))
 		}
+		if err := plausible(c.key, c.v); err != nil {
+			return fieldError(c.key, err)
+		}
+	}
+	for _, c := range []keyed{{"source.impedance", d.Source.Impedance}, {"source.series_c", d.Source.SeriesC}, {"load.c", d.Load.C}} {
+		if c.v > 0 {
+			if err := plausible(c.key, c.v); err != nil {
+				return fieldError(c.key, err)
+			}
+		}
+	}
+	if !math.IsInf(d.Load.R, 1) {
+		if err := plausible("load.r", d.Load.R); err != nil {
+			return fieldError("load.r", err)
+		}
 	}
 	if err := d.Tone.Pot.Taper.check(); err != nil {
 		return fieldError("tone.pot.midpoint", err)
@@ -121,6 +137,32 @@ type keyed struct {
 	key string
 	v   float64
 }
+
+// The range of values a part may have: far wider than any tone section
+// uses, narrow enough that the arithmetic stays finite.
+const (
+	MinOhms   = 1e-3
+	MaxOhms   = 1e12
+	MinFarads = 1e-15
+	MaxFarads = 1
+)
+
+// plausible checks a value against the range for its kind, told by the
+// key's last letter (.c and series_c are capacitances).
+func plausible(key string, v float64) error {
+	if strings.HasSuffix(key, ".c") || strings.HasSuffix(key, "series_c") {
+		if v < MinFarads || v > MaxFarads {
+			return fmt.Errorf("%s F is outside %s–%s F: is the prefix right (p, n, u)?", trimG(v), trimG(MinFarads), trimG(MaxFarads))
+		}
+		return nil
+	}
+	if v < MinOhms || v > MaxOhms {
+		return fmt.Errorf("%s Ω is outside %s–%s Ω: is the prefix right (k, M)?", trimG(v), trimG(MinOhms), trimG(MaxOhms))
+	}
+	return nil
+}
+
+func trimG(v float64) string { return fmt.Sprintf("%g", v) }
 
 func positive(v float64) bool    { return v > 0 && !math.IsInf(v, 0) }
 func nonNegative(v float64) bool { return v >= 0 && !math.IsInf(v, 0) }

@@ -95,6 +95,15 @@ func TestParseDesignErrors(t *testing.T) {
 		{"no tone", "name: x\n", []string{"bad.yaml", "tone", "missing"}},
 		{"missing leg part", edit(6, "  lowpass:  {r: 27k}"), []string{"bad.yaml:6:", "tone.lowpass", "missing key c"}},
 		{"twice", edit(13, "load: {r: 1M, r: 2M}"), []string{"bad.yaml:13:", "load.r", "twice"}},
+		{"unit r", edit(6, "  lowpass:  {r: 10nF, c: 12n}"), []string{"bad.yaml:6:", "tone.lowpass.r", "resistance"}},
+		{"unit c", edit(6, "  lowpass:  {r: 27k, c: 10kΩ}"), []string{"bad.yaml:6:", "tone.lowpass.c", "capacitance"}},
+		{"unit H", edit(7, "  highpass: {c: 3n3H, r: 56k}"), []string{"bad.yaml:7:", "tone.highpass.c", "in H"}},
+		{"unit pot", edit(8, "  pot: {value: 100kF, taper: linear}"), []string{"bad.yaml:8:", "tone.pot.value", "resistance"}},
+		{"linear midpoint", edit(8, "  pot: {value: 100k, taper: linear, midpoint: 0.2}"), []string{"bad.yaml:8:", "tone.pot.midpoint", "linear"}},
+		{"huge cap", edit(3, "source: {impedance: 6.8k, series_c: 100}"), []string{"bad.yaml:3:", "source.series_c", "prefix"}},
+		{"tiny r", edit(13, "load: {r: 1p, c: 0}"), []string{"bad.yaml:13:", "load.r", "outside"}},
+		{"extreme", edit(10, "  - {r: 1e300, c: 1n}"), []string{"bad.yaml:10:", "filters[0].r", "outside"}},
+		{"two documents", exampleDesign + "---\nname: other\n", []string{"bad.yaml:", "more than one YAML document"}},
 	} {
 		_, err := ParseDesign([]byte(tc.text), "bad.yaml")
 		if err == nil {

@@ -29,7 +29,7 @@ func studyDesign() *Design {
 // impedance rs. A design always has a blend network, so the test makes it
 // transparent rather than leaving it out: the high-pass leg's series
 // capacitor is 1 F (under 0.01 Ω in the band) and its shunt resistor 1 TΩ;
-// the pot's track is 1 TΩ and the low-pass leg (1 Ω, 1 aF) hangs off the
+// the pot's track is 1 TΩ and the low-pass leg (1 Ω, 1 fF) hangs off the
 // input through nearly an open circuit (over 0.8 TΩ up to 200 kHz). At
 // knob 1 the wiper sits at the high-pass end behind the pot's contact
 // resistance, EndResistance. With no level pot and an open load the
@@ -39,7 +39,7 @@ func rcDesign(rs, r, c float64) *Design {
 	return &Design{
 		Band:    DefaultBand,
 		Source:  Source{Impedance: rs},
-		Tone:    Tone{Network: BlendNetwork, Lowpass: RC{R: 1, C: 1e-18}, Highpass: RC{R: 1e12, C: 1}, Pot: PotPart{Value: 1e12}},
+		Tone:    Tone{Network: BlendNetwork, Lowpass: RC{R: 1, C: 1e-15}, Highpass: RC{R: 1e12, C: 1}, Pot: PotPart{Value: 1e12}},
 		Filters: []RC{{R: r, C: c}},
 		Load:    Load{R: math.Inf(1)},
 	}

@@ -1,6 +1,7 @@
 package networks
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
 	"math"
@@ -51,6 +52,13 @@ func (d *Decoder) Document(data []byte) (*yaml.Node, error) {
 	}
 	if len(root.Content) == 0 {
 		return nil, &FieldError{File: d.File, Err: errors.New("the file is empty")}
+	}
+	if k := bytes.Index(data, []byte("\n---")); k >= 0 && strings.TrimSpace(string(data[k+4:])) != "" {
+		var rest yaml.Node
+		dec := yaml.NewDecoder(bytes.NewReader(data))
+		if dec.Decode(&rest) == nil && dec.Decode(&rest) == nil {
+			return nil, &FieldError{File: d.File, Line: rest.Line, Err: errors.New("the file holds more than one YAML document (a second ---): keep one design per file")}
+		}
 	}
 	doc := root.Content[0]
 	if doc.Kind != yaml.MappingNode {
@@ -187,6 +195,24 @@ func (d *Decoder) Value(n *yaml.Node, path string) (float64, error) {
 	return v, nil
 }
 
+// ValueIn reads a part value like Value, and if it is written with a unit,
+// the unit must be want (Ω for resistances, F for capacitances).
+func (d *Decoder) ValueIn(n *yaml.Node, path, want string) (float64, error) {
+	s, err := d.scalar(n, path, "a value such as 4.7k, 100n or 4k7")
+	if err != nil {
+		return 0, err
+	}
+	v, unit, err := eseries.ParseUnit(s)
+	if err != nil {
+		return 0, d.Errorf(n, path, "%v", err)
+	}
+	if unit != "" && unit != want {
+		kind := map[string]string{"Ω": "a resistance", "F": "a capacitance"}[want]
+		return 0, d.Errorf(n, path, "%q is in %s, but %s is %s: write it in %s or without a unit", s, unit, path, kind, want)
+	}
+	return v, nil
+}
+
 // Number reads a plain finite number.
 func (d *Decoder) Number(n *yaml.Node, path string) (float64, error) {
 	s, err := d.scalar(n, path, "a number")
@@ -251,6 +277,16 @@ func (d *Decoder) into(v *float64) func(*yaml.Node, string) error {
 	return func(n *yaml.Node, p string) (err error) { *v, err = d.Value(n, p); return }
 }
 
+// ohms and farads return a Decode that reads a resistance or a capacitance
+// into *v, refusing the other kinds of unit.
+func (d *Decoder) ohms(v *float64) func(*yaml.Node, string) error {
+	return func(n *yaml.Node, p string) (err error) { *v, err = d.ValueIn(n, p, "Ω"); return }
+}
+
+func (d *Decoder) farads(v *float64) func(*yaml.Node, string) error {
+	return func(n *yaml.Node, p string) (err error) { *v, err = d.ValueIn(n, p, "F"); return }
+}
+
 // Band reads {from, to}.
 func (d *Decoder) Band(n *yaml.Node, path string, b *Band) error {
 	return d.Map(n, path, Key{"from", d.into(&b.From)}, Key{"to", d.into(&b.To)})
@@ -258,7 +294,7 @@ func (d *Decoder) Band(n *yaml.Node, path string, b *Band) error {
 
 // Source reads {impedance, series_c}.
 func (d *Decoder) Source(n *yaml.Node, path string, s *Source) error {
-	return d.Map(n, path, Key{"impedance", d.into(&s.Impedance)}, Key{"series_c", d.into(&s.SeriesC)})
+	return d.Map(n, path, Key{"impedance", d.ohms(&s.Impedance)}, Key{"series_c", d.farads(&s.SeriesC)})
 }
 
 // Load reads {r, c}; r may be the word open.
@@ -269,10 +305,10 @@ func (d *Decoder) Load(n *yaml.Node, path string, l *Load) error {
 				l.R = math.Inf(1)
 				return nil
 			}
-			l.R, err = d.Value(n, p)
+			l.R, err = d.ValueIn(n, p, "Ω")
 			return
 		}},
-		Key{"c", d.into(&l.C)})
+		Key{"c", d.farads(&l.C)})
 }
 
 // Pot reads a pot part: a bare value (linear taper) or {value, taper,
@@ -280,14 +316,14 @@ func (d *Decoder) Load(n *yaml.Node, path string, l *Load) error {
 func (d *Decoder) Pot(n *yaml.Node, path string, p *PotPart) error {
 	*p = PotPart{Taper: Taper{Law: Linear}}
 	if n.Kind == yaml.ScalarNode {
-		v, err := d.Value(n, path)
+		v, err := d.ValueIn(n, path, "Ω")
 		p.Value = v
 		return err
 	}
 	var mid float64
 	var haveMid bool
 	err := d.Map(n, path,
-		Key{"value", d.into(&p.Value)},
+		Key{"value", d.ohms(&p.Value)},
 		Key{"taper", func(n *yaml.Node, k string) error {
 			s, err := d.String(n, k)
 			if err != nil {
@@ -309,6 +345,9 @@ func (d *Decoder) Pot(n *yaml.Node, path string, p *PotPart) error {
 		return err
 	}
 	if haveMid {
+		if p.Taper.Law == Linear {
+			return d.Errorf(n, join(path, "midpoint"), "a linear taper has no midpoint: give taper: audio or reverse-audio, or drop midpoint")
+		}
 		p.Taper.Midpoint = mid
 	}
 	if p.Value == 0 && !hasKey(n, "value") {
@@ -332,7 +371,7 @@ func (d *Decoder) Level(n *yaml.Node, path string, l *LevelSetting) error {
 
 // RC reads {r, c}.
 func (d *Decoder) RC(n *yaml.Node, path string, rc *RC) error {
-	err := d.Map(n, path, Key{"r", d.into(&rc.R)}, Key{"c", d.into(&rc.C)})
+	err := d.Map(n, path, Key{"r", d.ohms(&rc.R)}, Key{"c", d.farads(&rc.C)})
 	if err == nil {
 		for _, k := range []string{"r", "c"} {
 			if !hasKey(n, k) {

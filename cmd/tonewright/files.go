@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -25,29 +26,48 @@ func loadDesign(path string) (*networks.Design, error) {
 // writeFile writes data to path through a temporary file in the same
 // directory, renamed into place, so that a failure leaves nothing partly
 // written. It refuses a path that is a directory or that names one of the
-// command's inputs.
+// command's inputs. A symbolic link is followed (the file it points to is
+// replaced, the link kept), and a path that is not a regular file, such as
+// /dev/stdout, is written directly.
 func writeFile(path string, data []byte, inputs ...string) error {
 	if err := checkOutput(path, inputs...); err != nil {
 		return err
 	}
+	if st, err := os.Stat(path); err == nil && !st.Mode().IsRegular() {
+		f, err := os.OpenFile(path, os.O_WRONLY|os.O_TRUNC, 0)
+		if err == nil {
+			_, err = f.Write(data)
+			if cerr := f.Close(); err == nil {
+				err = cerr
+			}
+		}
+		if err != nil {
+			return fmt.Errorf("writing %s: %w", path, err)
+		}
+		return nil
+	}
+	if real, err := filepath.EvalSymlinks(path); err == nil {
+		path = real
+	}
 	dir := filepath.Dir(path)
 	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
 	if err != nil {
-		return badInput(fmt.Errorf("cannot write %s: %w", path, err))
+		return badInput(fmt.Errorf("cannot write %s: %w", path, errors.Unwrap(err)))
 	}
 	name := tmp.Name()
-	if _, err := tmp.Write(data); err != nil {
+	fail := func(err error) error {
 		tmp.Close()
 		os.Remove(name)
 		return fmt.Errorf("writing %s: %w", path, err)
 	}
-	if err := tmp.Close(); err != nil {
-		os.Remove(name)
-		return fmt.Errorf("writing %s: %w", path, err)
+	if _, err := tmp.Write(data); err != nil {
+		return fail(err)
 	}
-	if err := os.Chmod(name, 0o644); err != nil {
-		os.Remove(name)
-		return err
+	if err := tmp.Chmod(0o644); err != nil {
+		return fail(err)
+	}
+	if err := tmp.Close(); err != nil {
+		return fail(err)
 	}
 	if err := os.Rename(name, path); err != nil {
 		os.Remove(name)
@@ -56,8 +76,10 @@ func writeFile(path string, data []byte, inputs ...string) error {
 	return nil
 }
 
-// checkOutput refuses an output path that is a directory or the same file
-// as one of the inputs.
+// checkOutput refuses, before any work is done, an output path that is a
+// directory, lies in a directory that does not exist, or is the same file
+// as one of the inputs, or the same file as another output of the command
+// (give the other outputs as inputs).
 func checkOutput(path string, inputs ...string) error {
 	if path == "" {
 		return usageErrorf("empty output file name")
@@ -66,16 +88,16 @@ func checkOutput(path string, inputs ...string) error {
 	if err == nil && st.IsDir() {
 		return usageErrorf("output %s is a directory: give a file name", path)
 	}
+	if dst, derr := os.Stat(filepath.Dir(path)); derr != nil || !dst.IsDir() {
+		return usageErrorf("output %s: the directory %s does not exist", path, filepath.Dir(path))
+	}
 	for _, in := range inputs {
 		if in == "" {
 			continue
 		}
 		ist, ierr := os.Stat(in)
-		if err == nil && ierr == nil && os.SameFile(st, ist) {
-			return usageErrorf("output %s is the input file %s: refusing to write over it", path, in)
-		}
-		if a, b := filepath.Clean(path), filepath.Clean(in); a == b {
-			return usageErrorf("output %s is the input file %s: refusing to write over it", path, in)
+		if (err == nil && ierr == nil && os.SameFile(st, ist)) || filepath.Clean(path) == filepath.Clean(in) {
+			return usageErrorf("output %s is also %s, an input or another output: refusing to write over it", path, in)
 		}
 	}
 	return nil

@@ -125,7 +125,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		}
 	}
 	if f.plot != "" {
-		if err := checkPlotFlag("plot", f.plot, inputs...); err != nil {
+		if err := checkPlotFlag("plot", f.plot, append(inputs, f.out)...); err != nil {
 			return err
 		}
 	}
