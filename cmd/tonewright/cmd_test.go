@@ -257,6 +257,7 @@ func TestBadInput(t *testing.T) {
 		{[]string{"plot", demoFile, "-o", demoFile}, ".png or .svg"},
 		{[]string{"analyze", demoFile, "--csv", dir}, "directory"},
 		{[]string{"analyze", demoFile, "--csv", demoFile}, "input file"},
+		{[]string{"analyze", demoFile, "--csv", filepath.Join(dir, "no-such-dir", "c.csv")}, "does not exist"},
 		{[]string{"snap", "4x7"}, `"4x7"`},
 		{[]string{"snap", "--", "-1k"}, "positive"},
 		{[]string{"snap", "1k", "--series", "E7"}, "E24"},
@@ -283,6 +284,28 @@ func TestRefuseDirectoryOutput(t *testing.T) {
 	code, _, errs := tw(t, "plot", demoFile, "-o", dir)
 	if code != 2 || !strings.Contains(errs, "directory") {
 		t.Errorf("exit %d %s", code, errs)
+	}
+}
+
+// An output given through a symbolic link replaces the file the link
+// points to and keeps the link.
+func TestWriteFollowsSymlink(t *testing.T) {
+	dir := t.TempDir()
+	real, link := filepath.Join(dir, "real.csv"), filepath.Join(dir, "link.csv")
+	if err := os.WriteFile(real, []byte("old"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.Symlink(real, link); err != nil {
+		t.Skip("no symbolic links here:", err)
+	}
+	if code, _, errs := tw(t, "analyze", exampleFile, "--csv", link); code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	if st, err := os.Lstat(link); err != nil || st.Mode()&os.ModeSymlink == 0 {
+		t.Errorf("the link was replaced: %v", err)
+	}
+	if b := mustRead(t, real); !bytes.HasPrefix(b, []byte("hz,")) {
+		t.Errorf("the linked file was not written: %q", b[:min(len(b), 20)])
 	}
 }
 

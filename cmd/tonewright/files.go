@@ -97,7 +97,7 @@ func checkOutput(path string, inputs ...string) error {
 		}
 		ist, ierr := os.Stat(in)
 		if (err == nil && ierr == nil && os.SameFile(st, ist)) || filepath.Clean(path) == filepath.Clean(in) {
-			return usageErrorf("output %s is also %s, an input or another output: refusing to write over it", path, in)
+			return usageErrorf("output %s is the same file as %s (an input file or another output): refusing to write over it", path, in)
 		}
 	}
 	return nil
