@@ -137,6 +137,10 @@ func ParseUnit(s string) (v float64, unit string, err error) {
 	if t == "" {
 		return fail("empty")
 	}
+	switch strings.ToLower(strings.TrimLeft(t, "+-.")) {
+	case "nan", "inf", "infinity":
+		return fail("not a finite number")
+	}
 
 	// Sign.
 	i := 0
