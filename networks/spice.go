@@ -29,10 +29,10 @@ func (n *Network) WriteSPICE(w io.Writer, title string, band Band, perDecade int
 		return s
 	}
 	if z > 0 {
-		fmt.Fprintf(&b, "V1 src 0 AC 1\n")
+		fmt.Fprintf(&b, "V1 src 0 DC 0 AC 1\n")
 		fmt.Fprintf(&b, "Rsrc src %s %s\n", node(drive), SPICEValue(z))
 	} else {
-		fmt.Fprintf(&b, "V1 %s 0 AC 1\n", node(drive))
+		fmt.Fprintf(&b, "V1 %s 0 DC 0 AC 1\n", node(drive))
 	}
 	for _, e := range n.Flatten() {
 		name := e.Name
@@ -43,7 +43,7 @@ func (n *Network) WriteSPICE(w io.Writer, title string, band Band, perDecade int
 		fmt.Fprintf(&b, "%s %s %s %s\n", name, node(e.A), node(e.B), SPICEValue(e.Value))
 	}
 	fmt.Fprintf(&b, ".ac dec %d %s %s\n", perDecade, SPICEValue(band.From), SPICEValue(band.To))
-	fmt.Fprintf(&b, ".print ac vdb(%s) vp(%s)\n.end\n", n.out, n.out)
+	fmt.Fprintf(&b, "* vdb() is the gain in dB, vp() the phase in radians\n.print ac vdb(%s) vp(%s)\n.end\n", n.out, n.out)
 	_, err := io.WriteString(w, b.String())
 	return err
 }

@@ -113,7 +113,7 @@ func describeDesign(d *networks.Design) string {
 		load = "load " + ohm(d.Load.R)
 	}
 	if d.Load.C > 0 {
-		load += " ∥ " + withUnit(d.Load.C, 3, "F")
+		load += " with " + withUnit(d.Load.C, 3, "F")
 	}
 	parts := []string{src, load}
 	if d.Level != nil {

@@ -178,7 +178,7 @@ func TestNetlistDeck(t *testing.T) {
 		t.Fatal(code)
 	}
 	golden(t, "netlist-demo.cir", out)
-	for _, want := range []string{"V1 src 0 AC 1", ".ac dec 100 2e+01 2e+04", "Rload out 0 1e+06"} {
+	for _, want := range []string{"V1 src 0 DC 0 AC 1", ".ac dec 100 2e+01 2e+04", "Rload out 0 1e+06"} {
 		if !strings.Contains(out, want) {
 			t.Errorf("deck lacks %q", want)
 		}

@@ -40,7 +40,7 @@ func parseList(flag, s string) ([]float64, error) {
 	for _, f := range strings.Split(s, ",") {
 		f = strings.TrimSpace(f)
 		if f == "" {
-			continue
+			return nil, usageErrorf("--%s %q: an empty item: give values separated by single commas, e.g. 100,1k,4.7k", flag, s)
 		}
 		v, err := eseries.Parse(f)
 		if err != nil {
@@ -61,7 +61,7 @@ func parsePositions(flag, s string) ([]float64, error) {
 	for _, f := range strings.Split(s, ",") {
 		f = strings.TrimSpace(f)
 		if f == "" {
-			continue
+			return nil, usageErrorf("--%s %q: an empty item: use numbers from 0 to 1 separated by single commas, e.g. 0,0.25,0.5,0.75,1", flag, s)
 		}
 		v, err := strconv.ParseFloat(f, 64)
 		if err != nil || !(v >= 0 && v <= 1) {

@@ -39,7 +39,7 @@ their two segments, and an .ac line sweeps the design's band.`,
 			}
 			ch := d.Chain(blend)
 			title := fmt.Sprintf("%s at blend %s (tonewright netlist; %s)", designTitle(d), posLabel(blend), describeDesign(d))
-			title = strings.NewReplacer("Ω", "ohm", "∥", "||", "–", "-", "−", "-").Replace(title)
+			title = strings.NewReplacer("Ω", "ohm", "–", "-", "−", "-").Replace(title)
 			var b strings.Builder
 			if err := ch.Network().WriteSPICE(&b, title, d.Band, points); err != nil {
 				return badInput(fmt.Errorf("%s: %w", args[0], err))

@@ -26,6 +26,7 @@ type curve struct {
 	Deg   []float64 // phase; may be nil
 	Marks []point   // drawn as open circles in the curve's colour
 	Dash  bool
+	Color color.Color // nil: the next colour of the palette
 }
 
 // point is a marked spot on a plot.
@@ -191,15 +192,32 @@ func (b *bode) render(path string, inputs ...string) error {
 		pha.Y.Label.Text = "phase (°)"
 		pha.Y.Tick.Marker = degTicks{}
 	}
-	for i, c := range b.Curves {
-		col := colorFor(i, len(b.Curves))
+	palette := 0
+	for _, c := range b.Curves {
+		if c.Color == nil {
+			palette++
+		}
+	}
+	next := 0
+	for _, c := range b.Curves {
+		var col color.Color = c.Color
+		var cycle int
+		if col == nil {
+			col, cycle = colorFor(next, palette), next/len(curveColors)
+			next++
+		}
 		l, err := plotter.NewLine(xys(c.Hz, c.DB))
 		if err != nil {
 			return err
 		}
 		l.Color, l.Width = col, vg.Points(2)
-		if c.Dash {
+		switch {
+		case c.Dash:
 			l.Dashes = []vg.Length{vg.Points(6), vg.Points(3)}
+		case cycle > 0:
+			// Past the palette's length the colours come round again,
+			// dotted.
+			l.Dashes = []vg.Length{vg.Points(2), vg.Points(2.5)}
 		}
 		mag.Add(l)
 		if c.Label != "" {

@@ -9,6 +9,9 @@ import (
 	"golang.org/x/term"
 )
 
+// version is the tool's version, printed by --version.
+const version = "0.1.0"
+
 // app is what every command writes to, so that tests can run commands
 // through the root with their own buffers.
 type app struct {
@@ -38,6 +41,7 @@ tolerances move the curve.`,
 		Example: `  tonewright demo
   tonewright analyze board.yaml
   tonewright plot board.yaml -o board.png`,
+		Version:       version,
 		SilenceUsage:  true,
 		SilenceErrors: true,
 	}

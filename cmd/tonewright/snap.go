@@ -77,5 +77,6 @@ VALUE is written as the trade writes it: 4700, 4.7k, 4k7, 2n2, 100nF, R47.`,
 	}
 	c.Flags().StringVar(&series, "series", "E24", "the series: E3, E6, E12, E24, E48, E96 or E192")
 	c.Flags().BoolVar(&asJSON, "json", false, "print the result as JSON")
+	_ = c.RegisterFlagCompletionFunc("series", cobra.FixedCompletions(eseries.SeriesNames(), cobra.ShellCompDirectiveNoFileComp))
 	return c
 }

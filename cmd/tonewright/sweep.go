@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"image/color"
 	"io"
 	"math"
 	"strings"
@@ -231,7 +232,7 @@ func sweepPlot(d *networks.Design, res *networks.SweepResult, bySource, byLoad b
 	}
 	own := designCurves(d, []float64{res.Blend}, false)[0]
 	own.Label = "design: " + label(d.Source.Impedance, d.Load.R)
-	own.Dash = true
+	own.Dash, own.Color = true, color.Black
 	b.Curves = append(b.Curves, own)
 	return b
 }

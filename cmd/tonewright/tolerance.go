@@ -126,6 +126,7 @@ trials run on all cores; the report depends on --seed only.`,
 	c.Flags().IntVar(&trials, "trials", 10000, "number of simulated builds")
 	c.Flags().Uint64Var(&seed, "seed", 1, "seed of the random draws; the same seed gives the same report")
 	c.Flags().StringVar(&dist, "dist", "uniform", "distribution `NAME` of the draws: uniform (within ± tolerance) or normal (tolerance = 3σ, truncated)")
+	_ = c.RegisterFlagCompletionFunc("dist", cobra.FixedCompletions([]string{"uniform", "normal"}, cobra.ShellCompDirectiveNoFileComp))
 	c.Flags().Float64Var(&blend, "blend", networks.DefaultStudyBlend, "blend knob position for the gain and the scoop, 0 (low-pass end) to 1 (high-pass end)")
 	c.Flags().IntVar(&workers, "workers", 0, "goroutines to run the trials on (0: all cores); the report does not depend on it")
 	c.Flags().StringVar(&plotPath, "plot", "", "draw the design's curve with the 5th–95th percentile band to `FILE` (.png or .svg)")
