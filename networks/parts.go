@@ -67,7 +67,7 @@ func (d *Design) PartNames() []string {
 
 // SetPart sets the value of the named part.
 func (d *Design) SetPart(name string, v float64) error {
-	p := d.partPtr(name)
+	p := d.PartRef(name)
 	if p == nil {
 		return fmt.Errorf("unknown part %q: this design's parts are %s", name, strings.Join(d.PartNames(), ", "))
 	}
@@ -77,14 +77,16 @@ func (d *Design) SetPart(name string, v float64) error {
 
 // PartValue returns the value of the named part.
 func (d *Design) PartValue(name string) (float64, error) {
-	p := d.partPtr(name)
+	p := d.PartRef(name)
 	if p == nil {
 		return 0, fmt.Errorf("unknown part %q: this design's parts are %s", name, strings.Join(d.PartNames(), ", "))
 	}
 	return *p, nil
 }
 
-func (d *Design) partPtr(name string) *float64 {
+// PartRef returns where the design keeps the named part's value, or nil for
+// a name it has no part by. The search writes candidate values through it.
+func (d *Design) PartRef(name string) *float64 {
 	switch name {
 	case "lowpass.r":
 		return &d.Tone.Lowpass.R

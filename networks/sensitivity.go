@@ -108,7 +108,7 @@ func Sensitivities(d *Design, blend float64) (*SensitivityReport, error) {
 	rep := &SensitivityReport{Blend: blend, Step: SensitivityStep, Nominal: pr.measure(d).metrics(), Ranking: map[string][]string{}}
 	w := d.Clone()
 	for _, p := range d.Parts() {
-		x := w.partPtr(p.Name)
+		x := w.PartRef(p.Name)
 		*x = p.Value * math.Exp(SensitivityStep)
 		up := pr.measure(w)
 		*x = p.Value * math.Exp(-SensitivityStep)

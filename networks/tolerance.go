@@ -239,7 +239,7 @@ func Tolerance(d *Design, spec ToleranceSpec) (*ToleranceReport, error) {
 		w := d.Clone()
 		ptrs := make([]*float64, len(spec.Parts))
 		for j, p := range spec.Parts {
-			ptrs[j] = w.partPtr(p.Name)
+			ptrs[j] = w.PartRef(p.Name)
 		}
 		pr := newProbe(w.Band, spec.Blend)
 		var pcg rand.PCG
