@@ -18,6 +18,12 @@ const GridPerDecade = 240
 // count as a local minimum: far above rounding, far below any audible dip.
 const minStep = 1e-9
 
+// MinProminence is how far, in dB, a local minimum must lie below the lower
+// of its two shoulders to count as a scoop. A shallower dip is a ripple on
+// a shelf that no ear hears, and measuring it against the far shoulder
+// would report a shelf as a deep scoop.
+const MinProminence = 0.1
+
 // Scoop is a mid scoop: the interior minimum of the gain at Hz, its depth
 // below the mean of the two shoulders and the balance between them.
 type Scoop struct {
@@ -59,7 +65,8 @@ func Gain1k(r Response) float64 { return r.GainDB(1000) }
 // most negative. Shoulders: G_lo is the largest gain on [band low, f_s],
 // G_hi the largest on [f_s, band high] (grid maxima, refined where they are
 // interior); depth_db = G(f_s) − (G_lo + G_hi)/2, balance_db = G_hi − G_lo.
-// found is false when there is no interior minimum.
+// A minimum less than MinProminence below the lower shoulder is not a
+// scoop. found is false when there is no scoop.
 func (m *Meter) Scoop(r Response) (s Scoop, found bool) {
 	g := m.fill(r)
 	n := len(g)
@@ -76,7 +83,11 @@ func (m *Meter) Scoop(r Response) (s Scoop, found bool) {
 			continue
 		}
 		fs, gs := goldenMin(r, m.grid[i-1], m.grid[j])
-		c := m.shoulders(r, i, fs, gs)
+		c, lower := m.shoulders(r, i, fs, gs)
+		if lower-gs < MinProminence {
+			i = j - 1
+			continue
+		}
 		if c.DepthDB < best.DepthDB {
 			best = c
 		}
@@ -110,15 +121,17 @@ func (m *Meter) levelsAt(r Response, f float64) Scoop {
 	for i < len(m.grid)-1 && m.grid[i+1] <= f {
 		i++
 	}
-	return m.shoulders(r, i+1, f, r.GainDB(f))
+	s, _ := m.shoulders(r, i+1, f, r.GainDB(f))
+	return s
 }
 
 // shoulders completes a Scoop at fs (gain gs), where grid points below
-// index split lie at or below fs and the rest above it.
-func (m *Meter) shoulders(r Response, split int, fs, gs float64) Scoop {
+// index split lie at or below fs and the rest above it, and returns the
+// lower of the two shoulders too.
+func (m *Meter) shoulders(r Response, split int, fs, gs float64) (Scoop, float64) {
 	lo := m.sideMax(r, 0, split, gs)
 	hi := m.sideMax(r, split, len(m.grid), gs)
-	return Scoop{Hz: fs, DepthDB: gs - (lo+hi)/2, BalanceDB: hi - lo}
+	return Scoop{Hz: fs, DepthDB: gs - (lo+hi)/2, BalanceDB: hi - lo}, math.Min(lo, hi)
 }
 
 // sideMax is the largest gain on grid[from:to] and at the split point,

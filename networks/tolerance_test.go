@@ -368,7 +368,7 @@ func TestToleranceNoScoopShare(t *testing.T) {
 		nominal bool    // whether the nominal curve has a scoop
 	}{
 		{0, 1, 1, false},
-		{0.36, 0.01, 0.99, true},
+		{0.39, 0.01, 0.99, true},
 		{0.5, 0, 0, true},
 	} {
 		rep, err := Tolerance(d, ToleranceSpec{Parts: PartTolerances(d, nil), Trials: 200, Seed: 1, Blend: tc.blend})

@@ -53,11 +53,15 @@ func TestNetlistReproducesAnalyze(t *testing.T) {
 		if got := interpLog(f, g, 1000); math.Abs(got-pm.Gain1kDB) > 0.01 {
 			t.Errorf("blend %g: ngspice gain at 1 kHz %.4f dB, analyze %.4f", pm.Blend, got, pm.Gain1kDB)
 		}
-		// The deepest interior grid minimum and its shoulders.
+		// The deepest interior grid minimum at least MinProminence below its
+		// lower shoulder, and its shoulders.
 		best, bestDepth, bestBal := -1, math.Inf(1), 0.0
 		for i := 1; i < len(g)-1; i++ {
 			if g[i] < g[i-1] && g[i] < g[i+1] {
 				lo, hi := maxOf(g[:i+1]), maxOf(g[i:])
+				if math.Min(lo, hi)-g[i] < networks.MinProminence {
+					continue
+				}
 				if d := g[i] - (lo+hi)/2; d < bestDepth {
 					best, bestDepth, bestBal = i, d, hi-lo
 				}
