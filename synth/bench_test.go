@@ -42,3 +42,30 @@ func BenchmarkObjective(b *testing.B) {
 		e.at(vals)
 	}
 }
+
+// BenchmarkRestore is one restoration of the lean phase: an invented
+// board brought onto the default synthesis's targets by moving every part.
+// It must not allocate.
+func BenchmarkRestore(b *testing.B) {
+	p := &Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-10.0), CornerHz: ptr(10e3)},
+		Source: &networks.Source{Impedance: 6.8e3}}
+	s, _ := p.Parts.resolve()
+	base, _ := p.design()
+	g, _ := p.goal(base)
+	vars, _ := p.variables(base, s)
+	e := newEvaluator(base.Clone(), g)
+	e.vars = bind(vars, e.d)
+	slaved, free := slavedVars(e)
+	mf := newManifold(e, slaved, free)
+	mf.moving(mf.all)
+	x0 := logValues([][]float64{{100e3, 10e-9, 2.2e-9, 47e3, 250e3, 22e3, 1e-9}})[0]
+	x := make([]float64, len(x0))
+	b.ReportAllocs()
+	evals := e.evals
+	for i := 0; i < b.N; i++ {
+		copy(x, x0)
+		mf.have = false
+		mf.restore(x, startSteps)
+	}
+	b.ReportMetric(float64(e.evals-evals)/float64(b.N), "evals/op")
+}

@@ -114,7 +114,11 @@ func continuous(e *evaluator, seeds [][]float64, tune tuner, rng *rand.Rand) ([]
 // more dimensions of a tone section. One evaluation at a time, so the
 // result does not depend on scheduling.
 func nelderMead(e *evaluator, x0 []float64, size float64, evals int) ([]float64, float64) {
-	f0 := e.f(x0)
+	return minimize(e.f, x0, e.f(x0), size, evals)
+}
+
+// minimize is nelderMead on any objective f, whose value at x0 is f0.
+func minimize(f func([]float64) float64, x0 []float64, f0, size float64, evals int) ([]float64, float64) {
 	method := &optimize.NelderMead{SimplexSize: size}
 	if n := float64(len(x0)); n > 1 {
 		method.Reflection, method.Expansion = 1, 1+2/n
@@ -124,7 +128,7 @@ func nelderMead(e *evaluator, x0 []float64, size float64, evals int) ([]float64,
 		FuncEvaluations: evals,
 		Converger:       &optimize.FunctionConverge{Absolute: 1e-7, Iterations: 8 * len(x0)},
 	}
-	res, err := optimize.Minimize(optimize.Problem{Func: e.f}, x0, settings, method)
+	res, err := optimize.Minimize(optimize.Problem{Func: f}, x0, settings, method)
 	if err != nil || res == nil || !(res.F < f0) {
 		return slices.Clone(x0), f0
 	}

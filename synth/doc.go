@@ -22,6 +22,20 @@
 // toward the least insertion loss at 1 kHz at knob 0.5. Where a candidate
 // has no scoop, the levels at the target frequency keep the slope.
 //
+// A fresh synthesis then runs the lean phase, because the targets fix only
+// four of its unknowns and the tie-break alone cannot choose between the
+// impedance levels left free: for the demo's voice the first phase lands
+// on a network that loses 32.7 dB at 1 kHz where one that loses 25.7 dB
+// meets the targets as well. The lean phase restores the first phase's
+// result and a seed for each pot value, leg-to-pot ratio and choice of the
+// leg solved for the balance (see freshSeeds) to the targets, by damped
+// Gauss–Newton steps on the measured errors; then, from the restored
+// points of least loss, it maximises the gain at 1 kHz over the high-pass
+// leg's R, the pot and the sections' R with Nelder–Mead, solving the
+// targets for the other four parts at each trial point. It keeps the first
+// phase's result unless it finds a design that meets the targets with less
+// loss.
+//
 // The discrete stage snaps the ideal values to the allowed ones jointly:
 // every combination of the members just below and just above each ideal
 // value, then single-part (and, when those stall, two-part) moves to the

@@ -76,36 +76,6 @@ func newEvaluator(d *networks.Design, g goal) *evaluator {
 	return e
 }
 
-// slot returns where the working design keeps the named part's value.
-func slot(d *networks.Design, name string) *float64 {
-	switch name {
-	case "lowpass.r":
-		return &d.Tone.Lowpass.R
-	case "lowpass.c":
-		return &d.Tone.Lowpass.C
-	case "highpass.c":
-		return &d.Tone.Highpass.C
-	case "highpass.r":
-		return &d.Tone.Highpass.R
-	case "pot":
-		return &d.Tone.Pot.Value
-	case "level":
-		if d.Level != nil {
-			return &d.Level.Pot.Value
-		}
-		return nil
-	}
-	for i := range d.Filters {
-		switch name {
-		case filterPart(i, "r"):
-			return &d.Filters[i].R
-		case filterPart(i, "c"):
-			return &d.Filters[i].C
-		}
-	}
-	return nil
-}
-
 // compile builds the working design's chain at blend position p into e.k.
 func (e *evaluator) compile(p float64) {
 	d := e.d
@@ -185,6 +155,45 @@ func (e *evaluator) cost(m *Metrics) float64 {
 		c += loss(math.Log(m.CornerHz/g.cornerHz) / IdealTolerance.Freq)
 	}
 	return c - tieBreak*m.Gain1kDB
+}
+
+// maxTargets is the number of figures a synthesis can aim at: the scoop's
+// frequency, depth and balance, and the corner.
+const maxTargets = 4
+
+// targetErrors writes the error of each target in units of IdealTolerance to
+// dst, in the order scoop frequency, depth, balance, corner (those that
+// are targets), and returns how many it wrote. Frequencies are compared
+// in log, so that a miss up and a miss down by the same factor weigh the
+// same.
+func (e *evaluator) targetErrors(m *Metrics, dst *[maxTargets]float64) int {
+	g := &e.goal
+	n := 0
+	if g.scoop {
+		dst[0] = math.Log(m.Scoop.Hz/g.hz) / IdealTolerance.Freq
+		dst[1] = (m.Scoop.DepthDB - g.depth) / IdealTolerance.Level
+		dst[2] = (m.Scoop.BalanceDB - g.balance) / IdealTolerance.Level
+		n = 3
+	}
+	if g.corner {
+		dst[n] = math.Log(m.CornerHz/g.cornerHz) / IdealTolerance.Freq
+		n++
+	}
+	return n
+}
+
+// worst is the largest error in units of IdealTolerance; +Inf when a
+// wanted scoop or corner is missing.
+func (e *evaluator) worst(m *Metrics) float64 {
+	if e.goal.scoop && !m.ScoopFound || e.goal.corner && !m.CornerFound {
+		return math.Inf(1)
+	}
+	var errs [maxTargets]float64
+	w := 0.0
+	for _, x := range errs[:e.targetErrors(m, &errs)] {
+		w = math.Max(w, math.Abs(x))
+	}
+	return w
 }
 
 // lossScale is where loss turns from squared to linear, in units of

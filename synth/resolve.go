@@ -277,7 +277,7 @@ func bind(vs []variable, d *networks.Design) []variable {
 	for i := range out {
 		out[i].slots = nil
 		for _, name := range out[i].parts {
-			out[i].slots = append(out[i].slots, slot(d, name))
+			out[i].slots = append(out[i].slots, d.PartRef(name))
 		}
 	}
 	return out

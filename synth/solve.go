@@ -47,13 +47,13 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 	}
 	switch {
 	case !limited:
-		pr.total = runEstimate(len(vars))
+		pr.total = runEstimate(len(vars), p.From == nil)
 		best = solveRun(base, g, vars, p.From == nil, s, rng, pr)
 	case subsets == nil:
-		pr.total = greedyRuns(len(vars), p.MaxChanges) * runEstimate(p.MaxChanges)
+		pr.total = greedyRuns(len(vars), p.MaxChanges) * runEstimate(p.MaxChanges, false)
 		best = greedy(base, g, vars, p.MaxChanges, s, rng, pr)
 	default:
-		pr.total = len(subsets) * runEstimate(p.MaxChanges)
+		pr.total = len(subsets) * runEstimate(p.MaxChanges, false)
 		for _, sub := range subsets {
 			vs := make([]variable, len(sub))
 			for j, i := range sub {
@@ -122,8 +122,9 @@ type run struct {
 	cost   float64   // of the chosen values
 }
 
-// solveRun searches one set of variables: continuous stage from the seeds,
-// then the discrete stage.
+// solveRun searches one set of variables: the continuous stage from the
+// seeds, for a fresh synthesis the lean phase from its result, then the
+// discrete stage.
 func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *sets, rng *rand.Rand, pr *progress) *run {
 	e := newEvaluator(base.Clone(), g)
 	e.vars = bind(vars, e.d)
@@ -131,11 +132,16 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 	var seeds [][]float64
 	var tune tuner
 	if fresh {
-		seeds, tune = freshSeeds(e.d, g, s), tuneBalance
+		seeds, tune = freshSeeds(e.d, g, s, sectionRatios), tuneBalance
 	} else {
 		seeds = [][]float64{e.values(nil)}
 	}
 	x, _ := continuous(e, seeds, tune, rng)
+	if fresh {
+		// The second phase: the least loss among the designs that meet
+		// the targets.
+		x = lean(e, x, logValues(freshSeeds(e.d, g, s, leanSectionRatios)))
+	}
 	e.setLog(x)
 	ideal := e.values(nil)
 	chosen, cost := discrete(e, ideal)
@@ -195,9 +201,10 @@ func containsInt(xs []int, x int) bool {
 // pot value, one leg's resistance at a few ratios to the pot and the other
 // leg's solved for the wanted balance from the legs' dividers at the
 // centre; and the filter sections' time constant from the ladder's corner
-// (LadderTau) at a few impedance levels. Values outside their ranges are
-// clamped.
-func freshSeeds(d *networks.Design, g goal, s *sets) [][]float64 {
+// (LadderTau) with their R at each of the ratios to the blend's output
+// resistance (R₂ in parallel with the pot). Values outside their ranges
+// are clamped.
+func freshSeeds(d *networks.Design, g goal, s *sets, ratios []float64) [][]float64 {
 	zs := d.Source.Impedance
 	tau1, tau2, err := IdealNotch(g.hz, g.depth)
 	if err != nil {
@@ -249,7 +256,7 @@ func freshSeeds(d *networks.Design, g goal, s *sets) [][]float64 {
 					seeds = append(seeds, v)
 					continue
 				}
-				for _, k := range []float64{10, 3, 1, 0.3} {
+				for _, k := range ratios {
 					rf := clampR(k * par(r2, pot))
 					cf := clampC(tauF / rf)
 					if tauF == 0 {
@@ -263,11 +270,26 @@ func freshSeeds(d *networks.Design, g goal, s *sets) [][]float64 {
 	return seeds
 }
 
+// The ratios of the filter sections' R to the blend's output resistance in
+// the seeds: of the continuous stage, a spread; of the lean phase, one,
+// high enough that the sections barely load the blend (the lean phase
+// moves it anyway). Restoring every seed to the targets costs a few dozen
+// evaluations, so the lean phase takes a quarter of them.
+var (
+	sectionRatios     = []float64{10, 3, 1, 0.3}
+	leanSectionRatios = []float64{10}
+)
+
 func clamp(v float64, r [2]float64) float64 { return math.Min(math.Max(v, r[0]), r[1]) }
 
-// runEstimate is the usual number of evaluations of one run, for progress.
-func runEstimate(nvars int) int {
-	return 120 + perturbations + refineStarts*refineEvals + 2*polishEvals + (1<<min(nvars, 9))*2
+// runEstimate is the usual number of evaluations of one run, for progress;
+// fresh adds the lean phase.
+func runEstimate(nvars int, fresh bool) int {
+	n := 120 + perturbations + refineStarts*refineEvals + 2*polishEvals + (1<<min(nvars, 9))*2
+	if fresh {
+		n += leanEstimate
+	}
+	return n
 }
 
 // progress forwards evaluation counts to Options.Progress.
