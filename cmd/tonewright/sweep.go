@@ -70,19 +70,11 @@ value − value_design.`,
 			if err != nil {
 				return badInput(fmt.Errorf("%s: %w", args[0], err))
 			}
-			if plotPath != "" {
-				if err := sweepPlot(d, res, haveSrc, haveLoad).render(plotPath, args[0]); err != nil {
-					return err
-				}
-			}
-			if asJSON {
-				return printJSON(a.out, res)
-			}
-			writeSweep(a.out, d, res)
-			if plotPath != "" {
-				fmt.Fprintf(a.out, "\nplot written to %s\n", plotPath)
-			}
-			return nil
+			return a.deliver(studyOutput{
+				plotPath: plotPath, input: args[0], asJSON: asJSON, value: res,
+				plot: func() *bode { return sweepPlot(d, res, haveSrc, haveLoad) },
+				text: func(w io.Writer) { writeSweep(w, d, res) },
+			})
 		},
 	}
 	c.Flags().StringVar(&sources, "source", "", "source impedances to try, a comma-separated `LIST` (100,1k,4.7k,22k; 0 is an ideal source)")

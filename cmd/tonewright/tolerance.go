@@ -105,19 +105,11 @@ trials run on all cores; the report depends on --seed only.`,
 			if err != nil {
 				return badInput(fmt.Errorf("%s: %w", args[0], err))
 			}
-			if plotPath != "" {
-				if err := tolerancePlot(d, rep).render(plotPath, args[0]); err != nil {
-					return err
-				}
-			}
-			if asJSON {
-				return printJSON(a.out, rep)
-			}
-			writeTolerance(a.out, d, rep)
-			if plotPath != "" {
-				fmt.Fprintf(a.out, "\nplot written to %s\n", plotPath)
-			}
-			return nil
+			return a.deliver(studyOutput{
+				plotPath: plotPath, input: args[0], asJSON: asJSON, value: rep,
+				plot: func() *bode { return tolerancePlot(d, rep) },
+				text: func(w io.Writer) { writeTolerance(w, d, rep) },
+			})
 		},
 	}
 	c.Flags().StringVar(&resistors, "resistors", "", "tolerance of every resistor in `PERCENT`, e.g. 5% or 1% (default: from its E-series, else 5%)")
