@@ -82,3 +82,25 @@ func lastLines(s string, n int) string {
 	}
 	return strings.Join(lines, " | ")
 }
+
+// TB is the part of testing.TB that RequireNgspice uses.
+type TB interface {
+	Helper()
+	Fatal(args ...any)
+	Skip(args ...any)
+}
+
+// RequireNgspice is for tests that compare with the ngspice simulator: it
+// skips the test when ngspice is not on PATH, saying how to install it,
+// unless TONEWRIGHT_REQUIRE_NGSPICE=1 (as .ci/run sets), when it fails the
+// test instead.
+func RequireNgspice(t TB) {
+	t.Helper()
+	if NgspiceAvailable() {
+		return
+	}
+	if os.Getenv("TONEWRIGHT_REQUIRE_NGSPICE") == "1" {
+		t.Fatal("ngspice is required (TONEWRIGHT_REQUIRE_NGSPICE=1) but not on PATH")
+	}
+	t.Skip("ngspice not found: install it (Debian: apt-get install ngspice) to run the comparisons with the reference simulator")
+}

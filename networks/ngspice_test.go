@@ -4,30 +4,16 @@ import (
 	"math"
 	"math/cmplx"
 	"math/rand/v2"
-	"os"
 	"strings"
 	"testing"
 )
-
-// requireNgspice skips the test when ngspice is missing, unless
-// TONEWRIGHT_REQUIRE_NGSPICE=1 (as .ci/run sets), when it fails instead.
-func requireNgspice(t *testing.T) {
-	t.Helper()
-	if NgspiceAvailable() {
-		return
-	}
-	if os.Getenv("TONEWRIGHT_REQUIRE_NGSPICE") == "1" {
-		t.Fatal("ngspice is required (TONEWRIGHT_REQUIRE_NGSPICE=1) but not on PATH")
-	}
-	t.Skip("ngspice not found: install it (Debian: apt-get install ngspice) to run the comparison with the reference simulator")
-}
 
 // The solver against an outside reference: the ngspice simulator's AC
 // analysis (Debian package ngspice) on random blend chains with random
 // parts, source, load, 0–3 filter sections, level pot and knob positions.
 // Magnitude within 0.01 dB and phase within 0.1° over 20 Hz–20 kHz.
 func TestAgainstNgspice(t *testing.T) {
-	requireNgspice(t)
+	RequireNgspice(t)
 	rng := rand.New(rand.NewPCG(20, 26))
 	for trial := 0; trial < 24; trial++ {
 		c := randomChain(rng)

@@ -4,22 +4,10 @@ import (
 	"encoding/json"
 	"math"
 	"math/cmplx"
-	"os"
 	"testing"
 
 	"tonewright/networks"
 )
-
-func requireNgspice(t *testing.T) {
-	t.Helper()
-	if networks.NgspiceAvailable() {
-		return
-	}
-	if os.Getenv("TONEWRIGHT_REQUIRE_NGSPICE") == "1" {
-		t.Fatal("ngspice is required (TONEWRIGHT_REQUIRE_NGSPICE=1) but not on PATH")
-	}
-	t.Skip("ngspice not found: install it (Debian: apt-get install ngspice) to check netlist against the reference simulator")
-}
 
 // The deck that netlist prints, run through the ngspice simulator (an
 // outside reference), reproduces what analyze reports at every knob
@@ -27,7 +15,7 @@ func requireNgspice(t *testing.T) {
 // and the corner, measured on ngspice's own 1000-points-per-decade data by
 // the definitions in the README (grid version, no refinement).
 func TestNetlistReproducesAnalyze(t *testing.T) {
-	requireNgspice(t)
+	networks.RequireNgspice(t)
 	code, out, errs := tw(t, "analyze", demoFile, "--json")
 	if code != 0 {
 		t.Fatal(errs)

@@ -29,7 +29,7 @@ func TestSpeedAgainstNgspice(t *testing.T) {
 	if !*speed {
 		t.Skip("timing comparison: run with -speed")
 	}
-	requireNgspice(t)
+	networks.RequireNgspice(t)
 	dir := t.TempDir()
 	bin := filepath.Join(dir, "tonewright")
 	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
