@@ -21,8 +21,9 @@ func init() { register(newDemoCmd) }
 var demoTargets []byte
 
 // demoSources are the driving stages the demo sweeps: a buffer, an emitter
-// follower, the board's own stage and a high-gain stage (invented).
-var demoSources = []float64{100, 1e3, 6.8e3, 22e3}
+// follower and two high-gain stages (invented); the board's own 6.8 kΩ is
+// the dashed reference curve.
+var demoSources = []float64{100, 1e3, 22e3, 47e3}
 
 func newDemoCmd(a *app) *cobra.Command {
 	return &cobra.Command{
