@@ -127,3 +127,49 @@ func (t Targets) MarshalJSON() ([]byte, error) {
 	out.CornerHz = t.CornerHz
 	return json.Marshal(out)
 }
+
+// MarshalJSON writes a check with the tool's snake_case keys: name, key,
+// unit, wanted, ideal, achieved (null when the figure is missing: no scoop,
+// or no corner below 10 × band top), the errors in the figure's unit
+// (ideal_error_pct and error_pct, in percent, for frequencies;
+// ideal_error_db and error_db for levels; null when missing),
+// ideal_found, found, ideal_met and met.
+func (c Check) MarshalJSON() ([]byte, error) {
+	type head struct {
+		Name     string   `json:"name"`
+		Key      string   `json:"key"`
+		Unit     string   `json:"unit"`
+		Wanted   float64  `json:"wanted"`
+		Ideal    *float64 `json:"ideal"`
+		Achieved *float64 `json:"achieved"`
+	}
+	type tail struct {
+		IdealFound bool `json:"ideal_found"`
+		Found      bool `json:"found"`
+		IdealMet   bool `json:"ideal_met"`
+		Met        bool `json:"met"`
+	}
+	opt := func(v float64, ok bool) *float64 {
+		if !ok {
+			return nil
+		}
+		return &v
+	}
+	h := head{Name: c.Name, Key: c.Key, Unit: c.Unit, Wanted: c.Wanted,
+		Ideal: opt(c.Ideal, c.IdealFound), Achieved: opt(c.Achieved, c.Found)}
+	t := tail{c.IdealFound, c.Found, c.IdealMet, c.Met}
+	if c.Unit == "Hz" {
+		return json.Marshal(struct {
+			head
+			IdealErrorPct *float64 `json:"ideal_error_pct"`
+			ErrorPct      *float64 `json:"error_pct"`
+			tail
+		}{h, opt(100*c.IdealError, c.IdealFound), opt(100*c.Error, c.Found), t})
+	}
+	return json.Marshal(struct {
+		head
+		IdealErrorDB *float64 `json:"ideal_error_db"`
+		ErrorDB      *float64 `json:"error_db"`
+		tail
+	}{h, opt(c.IdealError, c.IdealFound), opt(c.Error, c.Found), t})
+}

@@ -20,7 +20,9 @@
 // pseudo-Huber loss (squared near the target, linear far away, so that one
 // unreachable target does not drag the others), plus a small tie-break
 // toward the least insertion loss at 1 kHz at knob 0.5. Where a candidate
-// has no scoop, the levels at the target frequency keep the slope.
+// has no scoop, the levels at the target frequency keep the slope, and a
+// penalty larger than any corner miss keeps the scoop when the targets
+// cannot all be met.
 //
 // A fresh synthesis then runs the lean phase, because the targets fix only
 // four of its unknowns and the tie-break alone cannot choose between the
@@ -45,7 +47,12 @@
 //
 // Re-voicing starts from an existing design (Problem.From) and may limit
 // which parts change (Problem.Free) and how many (Problem.MaxChanges); the
-// Result lists the swaps.
+// Result lists the swaps. Targets not given keep the design's own figures.
+// Without a limit it also searches each part alone and starts the joint
+// search from the best of those, so more freedom is never worse than one
+// change; results are ranked by the number of targets missed, then by
+// cost. When a limited search misses, the search without the limit tells
+// whether the limit is the cause (Result.Cause, Result.Unlimited).
 //
 // Results are deterministic: the same Problem and Options give the same
 // Result on any machine and any number of cores.

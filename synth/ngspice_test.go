@@ -3,26 +3,12 @@ package synth
 import (
 	"math"
 	"math/cmplx"
-	"os"
 	"sort"
 	"strings"
 	"testing"
 
 	"tonewright/networks"
 )
-
-// requireNgspice skips the test when ngspice is missing, unless
-// TONEWRIGHT_REQUIRE_NGSPICE=1, when it fails instead.
-func requireNgspice(t *testing.T) {
-	t.Helper()
-	if networks.NgspiceAvailable() {
-		return
-	}
-	if os.Getenv("TONEWRIGHT_REQUIRE_NGSPICE") == "1" {
-		t.Fatal("ngspice is required (TONEWRIGHT_REQUIRE_NGSPICE=1) but not on PATH")
-	}
-	t.Skip("ngspice not found: install it (Debian: apt-get install ngspice) to check synth's figures with the reference simulator")
-}
 
 // spiceResponse is a response read from ngspice's AC analysis: the gain
 // interpolated linearly in log f between the simulator's points.
@@ -68,7 +54,7 @@ func runSpice(t *testing.T, d *networks.Design, p float64) *spiceResponse {
 // definitions applied to its curves give the figures synth reports, within
 // 0.1 % in frequency and 0.01 dB.
 func TestAchievedAgainstNgspice(t *testing.T) {
-	requireNgspice(t)
+	networks.RequireNgspice(t)
 	p := &Problem{Targets: Targets{ScoopHz: ptr(700.0), DepthDB: ptr(-8.0), CornerHz: ptr(9000.0)},
 		Source: &networks.Source{Impedance: 4.7e3}}
 	r, err := Solve(p, Options{})

@@ -11,11 +11,11 @@ import (
 // networks' definitions: the scoop at the targets' knob position, the
 // corner at knob 1 and the gain at 1 kHz at knob 0.5.
 type Metrics struct {
-	Scoop       networks.Scoop // with ScoopFound false: the levels at the target frequency
-	ScoopFound  bool
-	CornerHz    float64 // with CornerFound false: 0
-	CornerFound bool
-	Gain1kDB    float64 // at knob 0.5
+	Scoop       networks.Scoop `json:"scoop"` // with ScoopFound false: the levels at the target frequency
+	ScoopFound  bool           `json:"scoop_found"`
+	CornerHz    float64        `json:"corner_hz"` // with CornerFound false: 0
+	CornerFound bool           `json:"corner_found"`
+	Gain1kDB    float64        `json:"gain_1k_db"` // at knob 0.5
 }
 
 // goal is a resolved set of targets.
@@ -33,9 +33,13 @@ type goal struct {
 // tie-break moves each figure by a few hundredths of its tolerance.
 const tieBreak = 0.1
 
-// noScoop is added to the cost of a curve with no interior minimum: as much
-// as a 1 dB error.
-const noScoop = 100
+// noScoop is added to the cost of a curve with no interior minimum: more
+// than any plausible miss of the corner costs (a factor of e²⁵ in
+// frequency, through the loss's linear tail), so that when the targets
+// cannot all be met the search trades the corner against the scoop's
+// figures rather than drop the scoop. Within the curves without a scoop
+// the levels at the target frequency still give the search a slope.
+const noScoop = 1e5
 
 // boundWeight is the penalty per squared natural-log unit by which a
 // continuous value leaves its range.

@@ -96,9 +96,13 @@ func (p *Problem) goal(d *networks.Design) (goal, error) {
 	}
 	scoopGiven := t.ScoopHz != nil || t.DepthDB != nil || t.BalanceDB != nil
 	if p.From != nil {
-		// Re-voicing: what is not asked for stays as it is.
-		m := networks.NewMeter(d.Band)
-		c := d.Chain(g.at)
+		// Re-voicing: what is not asked for stays as it is, at the
+		// figures of the design as given (its own band, source, load,
+		// sections and level), not of the working copy, whose added
+		// sections hold placeholder values.
+		from := p.From
+		m := networks.NewMeter(from.Band)
+		c := from.Chain(g.at)
 		k := c.Compile()
 		s, found := m.Scoop(k)
 		if found {
@@ -107,7 +111,7 @@ func (p *Problem) goal(d *networks.Design) (goal, error) {
 			return g, fieldErrorf("targets.scoop", "the design %s has no scoop at knob %v to keep: give both the frequency and the depth",
 				designName(d), g.at)
 		}
-		if hz := networks.CornerOf(d, m); hz != nil {
+		if hz := networks.CornerOf(from, m); hz != nil {
 			g.corner, g.cornerHz = true, *hz
 		}
 	} else {
@@ -128,6 +132,16 @@ func (p *Problem) goal(d *networks.Design) (goal, error) {
 		g.balance = *t.BalanceDB
 	}
 	if t.CornerHz != nil {
+		// The blend network alone has no corner to set at knob 1: its
+		// high-pass leg passes the top of the band there, whatever its
+		// values (even at the ends of the part ranges the curve does not
+		// fall 3 dB by 10 × band top). A corner target then cannot be
+		// met, and aiming at it only drags the scoop away.
+		if len(d.Filters) == 0 && d.Load.C == 0 {
+			return g, fieldErrorf("targets.corner_hz", "the corner target (%s Hz) needs at least one filter section or a load capacitance, and this synthesis has neither: "+
+				"add sections (filters: 1 or --filters 1) or the load's capacitance (load: {c: 470p} or --load-c 470p), or drop the corner target (corner_hz / --corner)",
+				eseries.Format(*t.CornerHz))
+		}
 		g.corner, g.cornerHz = true, *t.CornerHz
 	}
 	if g.scoop {

@@ -8,28 +8,43 @@ import (
 
 // Result is a finished synthesis.
 type Result struct {
-	Targets Targets // as resolved: defaults and kept figures filled in
+	Targets Targets `json:"targets"` // as resolved: defaults and kept figures filled in
 
-	Ideal  *networks.Design // the continuous optimum: exact values
-	Design *networks.Design // the chosen parts
+	Ideal  *networks.Design `json:"ideal"`  // the continuous optimum: exact values
+	Design *networks.Design `json:"design"` // the chosen parts
 
-	IdealMetrics Metrics // of Ideal
-	Metrics      Metrics // of Design
+	IdealMetrics Metrics `json:"ideal_metrics"` // of Ideal
+	Metrics      Metrics `json:"metrics"`       // of Design
 
-	Parts   []Choice // every part of Design, in signal order
-	Checks  []Check  // every target
-	Changes []Change // re-voicing: the parts to swap
+	Parts   []Choice `json:"parts"`   // every part of Design, in signal order
+	Checks  []Check  `json:"checks"`  // every target
+	Changes []Change `json:"changes"` // re-voicing: the parts to swap
 
 	// Feasible reports whether the continuous optimum meets every target
 	// within IdealTolerance; when it does not, the targets ask for more
-	// than the topology, band and surroundings can give, and IdealMetrics
+	// than the topology, band and surroundings can give (or, re-voicing,
+	// than the parts allowed to change can: see Cause), and IdealMetrics
 	// are the nearest achievable figures.
-	Feasible bool
+	Feasible bool `json:"feasible"`
 	// Met reports whether the chosen parts meet every target within the
 	// tolerance (Options.Tolerance, by default PartsTolerance).
-	Met bool
+	Met bool `json:"met"`
 
-	Evaluations int // of the objective, in all
+	// Cause says why, when Met is false: CauseNetwork, CauseParts or
+	// CauseMaxChanges; "" when Met.
+	Cause string `json:"cause,omitempty"`
+	// Unlimited is, when a re-voicing limited by Problem.MaxChanges
+	// misses, the best design without the limit (its Changes are the
+	// swaps it needs); nil otherwise.
+	Unlimited *Result `json:"unlimited,omitempty"`
+	// MaxChanges is Problem.MaxChanges when it limited the search (it was
+	// below the number of free parts), else 0; StockFile is the stock
+	// file's name when a stock restricted the parts ("stock" for one
+	// built in code), else "".
+	MaxChanges int    `json:"max_changes,omitempty"`
+	StockFile  string `json:"stock_file,omitempty"`
+
+	Evaluations int `json:"evaluations"` // of the objective, in all
 }
 
 // Choice is one part of the chosen design.
@@ -46,7 +61,8 @@ type Choice struct {
 
 // Check is one target against what the ideal and the chosen designs
 // achieve. Frequency errors are relative ((achieved − wanted)/wanted),
-// level errors in dB (achieved − wanted).
+// level errors in dB (achieved − wanted); as JSON (see MarshalJSON) the
+// keys are snake_case and frequency errors are in percent.
 type Check struct {
 	Name   string // "scoop frequency", "scoop depth", "scoop balance", "corner"
 	Key    string // the targets-file key: targets.scoop.hz, …

@@ -3,7 +3,9 @@ package synth
 import (
 	"math"
 	"math/rand/v2"
+	"slices"
 
+	"tonewright/eseries"
 	"tonewright/networks"
 )
 
@@ -46,12 +48,15 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 		subsets = choose(len(vars), p.MaxChanges)
 	}
 	switch {
+	case !limited && p.From == nil:
+		pr.total = runEstimate(len(vars), true)
+		best = solveRun(base, g, vars, true, s, rng, pr, tol, nil)
 	case !limited:
-		pr.total = runEstimate(len(vars), p.From == nil)
-		best = solveRun(base, g, vars, p.From == nil, s, rng, pr)
+		pr.total = runEstimate(len(vars), false) + len(vars)*runEstimate(1, false)
+		best = unlimited(base, g, vars, s, rng, pr, tol, nil)
 	case subsets == nil:
 		pr.total = greedyRuns(len(vars), p.MaxChanges) * runEstimate(p.MaxChanges, false)
-		best = greedy(base, g, vars, p.MaxChanges, s, rng, pr)
+		best = greedy(base, g, vars, p.MaxChanges, s, rng, pr, tol)
 	default:
 		pr.total = len(subsets) * runEstimate(p.MaxChanges, false)
 		for _, sub := range subsets {
@@ -61,13 +66,125 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 			}
 			// Ties go to the earlier subset, so the order of the parts
 			// decides, never the scheduling.
-			if r := solveRun(base, g, vs, false, s, rng, pr); best == nil || r.cost < best.cost {
+			if r := solveRun(base, g, vs, false, s, rng, pr, tol, nil); r.better(best) {
 				best = r
 			}
 		}
 	}
+	// A limited re-voicing that misses: would the design meet the targets
+	// without the limit? Then the limit is the cause, not the network.
+	var free *run
+	if limited && !best.met {
+		pr.total += runEstimate(len(vars), false)
+		free = unlimited(base, g, vars, s, rng, pr, tol, []*run{best})
+	}
 	pr.done()
-	return best.result(p, base, g, tol, pr.evals), nil
+	res := best.result(p, base, g, tol, 0)
+	if free != nil {
+		res.Unlimited = free.result(p, base, g, tol, 0)
+	}
+	res.Evaluations = pr.evals
+	if limited {
+		res.MaxChanges = p.MaxChanges
+	}
+	if st := p.Parts.Stock; st != nil {
+		res.StockFile = st.File
+		if st.File == "" {
+			res.StockFile = "stock"
+		}
+	}
+	res.Cause = cause(res)
+	return res, nil
+}
+
+// The causes of a miss (Result.Cause).
+const (
+	// CauseNetwork: even the ideal (continuous) values miss; the targets
+	// ask for more than the network, band and surroundings can give.
+	CauseNetwork = "network"
+	// CauseParts: the ideal values meet the targets, the allowed values
+	// (the series, list or stock) cannot get close enough.
+	CauseParts = "parts"
+	// CauseMaxChanges: the targets are not reachable within
+	// Problem.MaxChanges; without the limit the ideal values meet them
+	// (Result.Unlimited is that search).
+	CauseMaxChanges = "max-changes"
+)
+
+// cause says why res misses, "" when it does not.
+func cause(res *Result) string {
+	switch {
+	case res.Met:
+		return ""
+	case res.Unlimited != nil && (res.Unlimited.Met || res.Unlimited.Feasible && !res.Feasible):
+		return CauseMaxChanges
+	case res.Feasible:
+		return CauseParts
+	}
+	return CauseNetwork
+}
+
+// unlimited searches a re-voicing over every free part at once. A search
+// over many parts from the one start of the design as it is can settle
+// where a search over fewer would not (moving one capacitor of two may
+// meet what moving both from the same start misses), so it also searches
+// each part alone, unless given runs to start from (from, e.g. a limited
+// search), and starts the joint search from the best of those too; it
+// keeps the better of the joint result and that run. So the search without
+// a limit is never worse than the limited searches of one part it
+// contains.
+func unlimited(base *networks.Design, g goal, vars []variable, s *sets, rng *rand.Rand, pr *progress, tol Tolerance, from []*run) *run {
+	if from == nil && len(vars) > 1 {
+		for i := range vars {
+			from = append(from, solveRun(base, g, vars[i:i+1], false, s, rng, pr, tol, nil))
+		}
+	}
+	var bestFrom *run
+	for _, r := range from {
+		if r.better(bestFrom) {
+			bestFrom = r
+		}
+	}
+	var extra [][]float64
+	if bestFrom != nil {
+		bestFrom = bestFrom.embed(base, vars)
+		extra = [][]float64{bestFrom.ideal, bestFrom.chosen}
+	}
+	r := solveRun(base, g, vars, false, s, rng, pr, tol, extra)
+	if bestFrom != nil && bestFrom.better(r) {
+		return bestFrom
+	}
+	return r
+}
+
+// embed returns the run r, made over some of vars, as a run over all of
+// them: the others at the base design's values.
+func (r *run) embed(base *networks.Design, vars []variable) *run {
+	out := &run{vars: vars, cost: r.cost, misses: r.misses, met: r.met,
+		ideal: make([]float64, len(vars)), chosen: make([]float64, len(vars))}
+	for i, v := range vars {
+		out.ideal[i] = *base.PartRef(v.parts[0])
+		out.chosen[i] = out.ideal[i]
+		for j, w := range r.vars {
+			if w.name == v.name {
+				out.ideal[i], out.chosen[i] = r.ideal[j], r.chosen[j]
+			}
+		}
+	}
+	return out
+}
+
+// better reports whether r is a better result than q (nil: no result):
+// the one that misses fewer targets (beyond the tolerance), then the one
+// of lower cost; a tie keeps q.
+func (r *run) better(q *run) bool {
+	if q == nil {
+		return true
+	}
+	if r.misses != q.misses {
+		return r.misses < q.misses
+	}
+	return r.cost < q.cost
 }
 
 // maxSubsets bounds the exhaustive search over which parts a re-voicing
@@ -120,12 +237,17 @@ type run struct {
 	ideal  []float64 // continuous optimum
 	chosen []float64 // allowed values
 	cost   float64   // of the chosen values
+	misses int       // targets the chosen values miss (beyond the tolerance)
+	met    bool      // misses == 0
 }
 
 // solveRun searches one set of variables: the continuous stage from the
 // seeds, for a fresh synthesis the lean phase from its result, then the
 // discrete stage.
-func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *sets, rng *rand.Rand, pr *progress) *run {
+// A re-voicing starts from the design's values and from extra (values, one
+// per variable), and the discrete stage also tries extra's values that are
+// allowed ones; tol decides whether the result meets the targets.
+func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *sets, rng *rand.Rand, pr *progress, tol Tolerance, extra [][]float64) *run {
 	e := newEvaluator(base.Clone(), g)
 	e.vars = bind(vars, e.d)
 	e.progress = pr.tick
@@ -134,7 +256,7 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 	if fresh {
 		seeds, tune = freshSeeds(e.d, g, s, sectionRatios), tuneBalance
 	} else {
-		seeds = [][]float64{e.values(nil)}
+		seeds = append([][]float64{e.values(nil)}, extra...)
 	}
 	x, _ := continuous(e, seeds, tune, rng)
 	if fresh {
@@ -153,14 +275,39 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 		}
 		e.setValues(chosen)
 	}
+	miss := misses(e, chosen, tol)
+	for _, x := range extra {
+		if !allowed(e, x) {
+			continue
+		}
+		f := e.at(x)
+		if m := misses(e, x, tol); m < miss || m == miss && f < cost {
+			chosen, cost, miss = slices.Clone(x), f, m
+		}
+	}
 	pr.evals += e.evals
 	pr.cur = 0
-	return &run{vars: vars, ideal: ideal, chosen: chosen, cost: cost}
+	return &run{vars: vars, ideal: ideal, chosen: chosen, cost: cost, misses: miss, met: miss == 0}
+}
+
+// allowed reports whether every value of vals is one the variable may
+// take: a member of its set or its original value.
+func allowed(e *evaluator, vals []float64) bool {
+	for i := range e.vars {
+		v := &e.vars[i]
+		if v.original > 0 && same(vals[i], v.original) {
+			continue
+		}
+		if n, err := eseries.Nearest(v.set, vals[i]); err != nil || !same(n, vals[i]) {
+			return false
+		}
+	}
+	return true
 }
 
 // greedy chooses up to k parts to change one at a time: each step frees
 // the part whose addition gives the lowest cost.
-func greedy(base *networks.Design, g goal, vars []variable, k int, s *sets, rng *rand.Rand, pr *progress) *run {
+func greedy(base *networks.Design, g goal, vars []variable, k int, s *sets, rng *rand.Rand, pr *progress, tol Tolerance) *run {
 	var picked []int
 	var best *run
 	for len(picked) < k {
@@ -174,8 +321,8 @@ func greedy(base *networks.Design, g goal, vars []variable, k int, s *sets, rng 
 			for _, j := range append(append([]int(nil), picked...), i) {
 				vs = append(vs, vars[j])
 			}
-			r := solveRun(base, g, vs, false, s, rng, pr)
-			if stepBest == nil || r.cost < stepBest.cost {
+			r := solveRun(base, g, vs, false, s, rng, pr, tol, nil)
+			if r.better(stepBest) {
 				stepBest, stepPick = r, i
 			}
 		}
@@ -319,13 +466,19 @@ func (p *progress) done() {
 
 // meets reports whether the variables at vals meet every target within tol.
 func meets(e *evaluator, vals []float64, tol Tolerance) bool {
+	return misses(e, vals, tol) == 0
+}
+
+// misses counts the targets the variables at vals miss by more than tol.
+func misses(e *evaluator, vals []float64, tol Tolerance) int {
 	e.setValues(vals)
 	var m Metrics
 	e.measure(&m)
+	n := 0
 	for _, c := range checks(e.goal, &m, &m, tol) {
 		if !c.Met {
-			return false
+			n++
 		}
 	}
-	return true
+	return n
 }

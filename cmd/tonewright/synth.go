@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 	"text/tabwriter"
@@ -95,7 +97,13 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 	if len(args) == 1 {
 		var err error
 		if p, err = synth.LoadTargets(args[0]); err != nil {
+			if _, derr := networks.LoadDesign(args[0]); derr == nil {
+				return badInput(fmt.Errorf("%w\nthis looks like a design file: re-voice it with --from %s (TARGETS is a targets file: targets, source, load, filters, parts)", err, args[0]))
+			}
 			return badInput(err)
+		}
+		if p.Name == "" {
+			p.Name = strings.TrimSuffix(filepath.Base(args[0]), filepath.Ext(args[0]))
 		}
 		inputs = append(inputs, args[0])
 		if p.Parts.Stock != nil {
@@ -436,17 +444,13 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 		} else {
 			fmt.Fprintf(w, "swap %d %s:\n", len(res.Changes), plural(len(res.Changes), "part", "parts"))
 			for _, ch := range res.Changes {
-				unit := "Ω"
-				if strings.HasSuffix(ch.Part, ".c") {
-					unit = "F"
-				}
-				was := "(new)"
-				if ch.From > 0 {
-					was = withUnit(ch.From, 3, unit)
-				}
-				fmt.Fprintf(w, "  %s (%s): %s → %s\n", ch.Part, ch.Role, was, withUnit(ch.To, 3, unit))
+				fmt.Fprintf(w, "  %s\n", changeLine(ch))
 			}
 		}
+	}
+	if res.Met && !res.Feasible {
+		fmt.Fprintf(w, "note: the ideal column's * are against the ideal parts' tighter tolerance (%.1f %%, %.1f dB): the exact optimum cannot quite reach those figures, but the chosen parts meet every target within theirs\n",
+			100*synth.IdealTolerance.Freq, synth.IdealTolerance.Level)
 	}
 	if !res.Met {
 		fmt.Fprintln(w)
@@ -456,11 +460,71 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 				fmt.Fprintf(w, "  %s\n", missLine(c))
 			}
 		}
-		if !res.Feasible {
+		switch res.Cause {
+		case synth.CauseMaxChanges:
+			fmt.Fprintf(w, "%s\n", limitCause(res))
+			if u := res.Unlimited; u != nil && u.Met {
+				for _, ch := range u.Changes {
+					fmt.Fprintf(w, "  %s\n", changeLine(ch))
+				}
+			}
+		case synth.CauseParts:
+			fmt.Fprintf(w, "%s\n", partsCause(res))
+		default:
 			fmt.Fprintln(w, "the ideal parts miss too: these targets ask for more than the network, band and surroundings can give;")
 			fmt.Fprintln(w, "the ideal column shows the nearest achievable figures")
 		}
 	}
+}
+
+// changeLine is one swap: part (role): from → to.
+func changeLine(ch synth.Change) string {
+	unit := "Ω"
+	if strings.HasSuffix(ch.Part, ".c") {
+		unit = "F"
+	}
+	was := "(new)"
+	if ch.From > 0 {
+		was = withUnit(ch.From, 3, unit)
+	}
+	return fmt.Sprintf("%s (%s): %s → %s", ch.Part, ch.Role, was, withUnit(ch.To, 3, unit))
+}
+
+// limitCause says that the change limit, not the network, stops the
+// re-voicing, and what meets the targets without it.
+func limitCause(res *synth.Result) string {
+	k := res.MaxChanges
+	msg := fmt.Sprintf("not reachable with at most %d %s (--max-changes %d)", k, plural(k, "change", "changes"), k)
+	u := res.Unlimited
+	switch {
+	case u != nil && u.Met:
+		n := len(u.Changes)
+		msg += fmt.Sprintf("; %d %s meet every target:", n, plural(n, "change", "changes"))
+	default:
+		msg += "; without the limit the ideal parts meet every target"
+	}
+	return msg
+}
+
+// partsCause says that the allowed values, not the network, miss: the
+// ideal parts meet every target.
+func partsCause(res *synth.Result) string {
+	var sets []string
+	stock := false
+	for _, c := range res.Parts {
+		if !c.Free || c.Set == "unchanged" || slices.Contains(sets, c.Set) {
+			continue
+		}
+		if c.Set == "stock" {
+			stock = true
+		}
+		sets = append(sets, c.Set)
+	}
+	if stock {
+		return fmt.Sprintf("the ideal parts meet every target, the stocked parts miss: the values in %s (%s) cannot get close enough; add values near the ideal column to the stock",
+			res.StockFile, strings.Join(sets, ", "))
+	}
+	return fmt.Sprintf("the ideal parts meet every target, the chosen values (%s) cannot get close enough: try a finer series or a list of values", strings.Join(sets, ", "))
 }
 
 func sections(n int) string {
@@ -542,10 +606,21 @@ func unmetMessage(res *synth.Result) string {
 		}
 	}
 	msg := "targets not met: " + strings.Join(missed, ", ")
-	if !res.Feasible {
+	switch res.Cause {
+	case synth.CauseMaxChanges:
+		msg += " (" + limitCause(res)
+		if u := res.Unlimited; u != nil && u.Met {
+			var sw []string
+			for _, ch := range u.Changes {
+				sw = append(sw, ch.Part)
+			}
+			msg += " " + strings.Join(sw, ", ")
+		}
+		msg += ")"
+	case synth.CauseParts:
+		msg += " (" + partsCause(res) + ")"
+	default:
 		msg += " (beyond what this network can give; see the nearest achievable figures above)"
-	} else {
-		msg += " (the ideal parts meet them: try a finer series or more stock)"
 	}
 	return msg
 }

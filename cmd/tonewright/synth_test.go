@@ -231,3 +231,63 @@ func TestSynthBadInput(t *testing.T) {
 		t.Errorf("%s written despite bad input", out)
 	}
 }
+
+// The misses are blamed on their cause: the change limit (with the swaps
+// that meet the targets without it), or the stock (invented boards and
+// stock).
+func TestSynthUnmetCause(t *testing.T) {
+	bare := writeTemp(t, "bare.yaml", strings.Replace(synthBoard, "filters:\n  - {r: 10k, c: 1n}\n  - {r: 10k, c: 1n}\n", "", 1))
+	code, stdout, stderr := tw(t, "synth", "--from", bare, "--scoop-hz", "800", "--max-changes", "1")
+	if code != 3 || !strings.Contains(stdout, "not reachable with at most 1 change (--max-changes 1);") ||
+		!strings.Contains(stdout, "changes meet every target:") || !strings.Contains(stderr, "not reachable with at most 1 change") ||
+		strings.Contains(stdout, "ask for more than the network") {
+		t.Errorf("exit %d\n%s%s", code, stdout, stderr)
+	}
+	stock := writeTemp(t, "drawer.yaml", "resistors: [1k, 100k, 1M]\ncapacitors: [100p, 100n]\n")
+	code, stdout, stderr = tw(t, "synth", "--scoop-hz", "700", "--depth", "-8", "--corner", "9k", "--stock", stock)
+	if code != 3 || !strings.Contains(stdout, "the stocked parts miss: the values in "+stock) || !strings.Contains(stderr, stock) {
+		t.Errorf("exit %d\n%s%s", code, stdout, stderr)
+	}
+}
+
+// Small things: a design file given as TARGETS gets a hint; an unnamed
+// targets file names the design; a corner without sections or load
+// capacitance is bad input; checks use the tool's JSON keys.
+func TestSynthInputHints(t *testing.T) {
+	board := writeTemp(t, "board.yaml", synthBoard)
+	code, _, stderr := tw(t, "synth", board)
+	if code != 2 || !strings.Contains(stderr, `unknown key "tone"`) || !strings.Contains(stderr, "this looks like a design file: re-voice it with --from "+board) {
+		t.Errorf("exit %d %s", code, stderr)
+	}
+	voice := writeTemp(t, "my-voice.yaml", strings.Replace(synthTargets, "name: invented mid scoop\n", "", 1))
+	code, stdout, stderr := tw(t, "synth", voice)
+	if code != 0 || !strings.HasPrefix(stdout, "my-voice: ") {
+		t.Errorf("exit %d\n%s%s", code, stdout, stderr)
+	}
+	code, _, stderr = tw(t, "synth", "--scoop-hz", "700", "--depth", "-8", "--corner", "9k", "--filters", "0")
+	if code != 2 || !strings.Contains(stderr, "targets.corner_hz:") || !strings.Contains(stderr, "--corner") ||
+		!strings.Contains(stderr, "needs at least one filter section or a load capacitance") {
+		t.Errorf("exit %d %s", code, stderr)
+	}
+	code, stdout, stderr = tw(t, "synth", "--scoop-hz", "700", "--depth", "-8", "--corner", "9k", "--source", "4.7k", "--json")
+	if code != 0 {
+		t.Fatalf("exit %d %s", code, stderr)
+	}
+	var v struct {
+		Checks []map[string]any `json:"checks"`
+	}
+	if err := json.Unmarshal([]byte(stdout), &v); err != nil || len(v.Checks) != 4 {
+		t.Fatalf("%v %s", err, stdout)
+	}
+	for _, c := range v.Checks {
+		keys := []string{"name", "key", "unit", "wanted", "ideal", "achieved", "met", "ideal_met", "error_pct", "ideal_error_pct"}
+		if c["unit"] == "dB" {
+			keys[8], keys[9] = "error_db", "ideal_error_db"
+		}
+		for _, k := range keys {
+			if _, ok := c[k]; !ok {
+				t.Errorf("check %v lacks %q", c, k)
+			}
+		}
+	}
+}
