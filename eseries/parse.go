@@ -227,10 +227,7 @@ func ParseUnit(s string) (v float64, unit string, err error) {
 
 	// Suffix: one optional space, then an optional prefix, then an
 	// optional unit.
-	rest := t[i:]
-	if strings.HasPrefix(rest, " ") {
-		rest = rest[1:]
-	}
+	rest := strings.TrimPrefix(t[i:], " ")
 	if u, ok := unitOf(rest); ok {
 		if hasExp {
 			return finishNumber(s, number, u)

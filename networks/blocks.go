@@ -126,12 +126,3 @@ func (l Load) Build(n *Network, out string) {
 		n.Capacitor("Cload", out, Ground, l.C)
 	}
 }
-
-// admittance returns the load's admittance at s.
-func (l Load) admittance(s complex128) complex128 {
-	y := s * complex(l.C, 0)
-	if !math.IsInf(l.R, 1) {
-		y += complex(1/l.R, 0)
-	}
-	return y
-}

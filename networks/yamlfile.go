@@ -54,10 +54,10 @@ func (d *Decoder) Document(data []byte) (*yaml.Node, error) {
 		return nil, &FieldError{File: d.File, Err: errors.New("the file is empty")}
 	}
 	if k := bytes.Index(data, []byte("\n---")); k >= 0 && strings.TrimSpace(string(data[k+4:])) != "" {
-		var rest yaml.Node
+		var first, second yaml.Node
 		dec := yaml.NewDecoder(bytes.NewReader(data))
-		if dec.Decode(&rest) == nil && dec.Decode(&rest) == nil {
-			return nil, &FieldError{File: d.File, Line: rest.Line, Err: errors.New("the file holds more than one YAML document (a second ---): keep one design per file")}
+		if dec.Decode(&first) == nil && dec.Decode(&second) == nil {
+			return nil, &FieldError{File: d.File, Line: second.Line, Err: errors.New("the file holds more than one YAML document (a second ---): keep one design per file")}
 		}
 	}
 	doc := root.Content[0]

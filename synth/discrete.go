@@ -60,7 +60,6 @@ func discrete(e *evaluator, ideal []float64) ([]float64, float64) {
 		for i := range best {
 			best[i] = nearest(&e.vars[i], ideal[i])
 		}
-		bestF = e.at(best)
 	}
 	return discreteFrom(e, best)
 }
