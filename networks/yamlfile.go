@@ -196,7 +196,8 @@ func (d *Decoder) Value(n *yaml.Node, path string) (float64, error) {
 }
 
 // ValueIn reads a part value like Value, and if it is written with a unit,
-// the unit must be want (Ω for resistances, F for capacitances).
+// the unit must be want (Ω for resistances, F for capacitances; Hz, for
+// frequencies, means no unit is accepted).
 func (d *Decoder) ValueIn(n *yaml.Node, path, want string) (float64, error) {
 	s, err := d.scalar(n, path, "a value such as 4.7k, 100n or 4k7")
 	if err != nil {
@@ -207,7 +208,10 @@ func (d *Decoder) ValueIn(n *yaml.Node, path, want string) (float64, error) {
 		return 0, d.Errorf(n, path, "%v", err)
 	}
 	if unit != "" && unit != want {
-		kind := map[string]string{"Ω": "a resistance", "F": "a capacitance"}[want]
+		kind := map[string]string{"Ω": "a resistance", "F": "a capacitance", "Hz": "a frequency"}[want]
+		if want == "Hz" {
+			return 0, d.Errorf(n, path, "%q is in %s, but %s is %s: write it without a unit, e.g. 5k", s, unit, path, kind)
+		}
 		return 0, d.Errorf(n, path, "%q is in %s, but %s is %s: write it in %s or without a unit", s, unit, path, kind, want)
 	}
 	return v, nil

@@ -74,8 +74,8 @@ func (p *Problem) design() (*networks.Design, error) {
 		}
 		d.Filters = d.Filters[:n]
 	}
-	if len(d.Filters) > 32 {
-		return nil, fieldErrorf("filters", "%d sections is more than the 32 the tool designs", len(d.Filters))
+	if len(d.Filters) > networks.MaxFilters {
+		return nil, fieldErrorf("filters", "%d sections is more than the %d the tool designs", len(d.Filters), networks.MaxFilters)
 	}
 	if err := d.Validate(); err != nil {
 		return nil, err

@@ -54,7 +54,7 @@ func ParseTargets(data []byte, name string) (*Problem, error) {
 	p := &Problem{dec: dec}
 	value := func(dst **float64, check func(float64) string) func(*yaml.Node, string) error {
 		return func(n *yaml.Node, path string) error {
-			v, err := dec.Value(n, path)
+			v, err := dec.ValueIn(n, path, "Hz")
 			if err != nil {
 				return err
 			}
@@ -137,8 +137,8 @@ func ParseTargets(data []byte, name string) (*Problem, error) {
 			if err != nil {
 				return err
 			}
-			if k < 0 || k > 32 {
-				return dec.Errorf(n, path, "%d sections: give a number from 0 to 32", k)
+			if k < 0 || k > networks.MaxFilters {
+				return dec.Errorf(n, path, "%d sections: give a number from 0 to %d", k, networks.MaxFilters)
 			}
 			p.Filters = &k
 			return nil
@@ -150,23 +150,23 @@ func ParseTargets(data []byte, name string) (*Problem, error) {
 		networks.Key{Name: "parts", Decode: func(n *yaml.Node, path string) error {
 			return dec.Map(n, path,
 				networks.Key{Name: "resistors", Decode: func(n *yaml.Node, path string) (err error) {
-					p.Parts.Resistors, err = partSet(dec, n, path)
+					p.Parts.Resistors, err = partSet(dec, n, path, "Ω")
 					return
 				}},
 				networks.Key{Name: "capacitors", Decode: func(n *yaml.Node, path string) (err error) {
-					p.Parts.Capacitors, err = partSet(dec, n, path)
+					p.Parts.Capacitors, err = partSet(dec, n, path, "F")
 					return
 				}},
 				networks.Key{Name: "pots", Decode: func(n *yaml.Node, path string) (err error) {
-					p.Parts.Pots, err = positiveValues(dec, n, path)
+					p.Parts.Pots, err = positiveValues(dec, n, path, "Ω")
 					return
 				}},
 				networks.Key{Name: "resistor_range", Decode: func(n *yaml.Node, path string) (err error) {
-					p.Parts.ResistorRange, err = valueRange(dec, n, path)
+					p.Parts.ResistorRange, err = valueRange(dec, n, path, "Ω")
 					return
 				}},
 				networks.Key{Name: "capacitor_range", Decode: func(n *yaml.Node, path string) (err error) {
-					p.Parts.CapacitorRange, err = valueRange(dec, n, path)
+					p.Parts.CapacitorRange, err = valueRange(dec, n, path, "F")
 					return
 				}},
 				networks.Key{Name: "stock", Decode: func(n *yaml.Node, path string) (err error) {
@@ -196,7 +196,7 @@ func ParseTargets(data []byte, name string) (*Problem, error) {
 }
 
 // partSet reads a series name (E3…E192) or a list of values.
-func partSet(dec *networks.Decoder, n *yaml.Node, path string) (eseries.Set, error) {
+func partSet(dec *networks.Decoder, n *yaml.Node, path, unit string) (eseries.Set, error) {
 	if n.Kind == yaml.ScalarNode {
 		s, err := dec.String(n, path)
 		if err != nil {
@@ -209,7 +209,7 @@ func partSet(dec *networks.Decoder, n *yaml.Node, path string) (eseries.Set, err
 		}
 		return se, nil
 	}
-	vs, err := positiveValues(dec, n, path)
+	vs, err := positiveValues(dec, n, path, unit)
 	if err != nil {
 		return nil, err
 	}
@@ -220,11 +220,12 @@ func partSet(dec *networks.Decoder, n *yaml.Node, path string) (eseries.Set, err
 	return l, nil
 }
 
-// positiveValues reads a non-empty list of positive part values.
-func positiveValues(dec *networks.Decoder, n *yaml.Node, path string) ([]float64, error) {
+// positiveValues reads a non-empty list of positive part values; a value
+// written with a unit must be in unit (Ω or F).
+func positiveValues(dec *networks.Decoder, n *yaml.Node, path, unit string) ([]float64, error) {
 	var out []float64
 	err := dec.List(n, path, func(c *yaml.Node, p string) error {
-		v, err := dec.Value(c, p)
+		v, err := dec.ValueIn(c, p, unit)
 		if err != nil {
 			return err
 		}
@@ -241,8 +242,8 @@ func positiveValues(dec *networks.Decoder, n *yaml.Node, path string) ([]float64
 }
 
 // valueRange reads [low, high].
-func valueRange(dec *networks.Decoder, n *yaml.Node, path string) ([2]float64, error) {
-	vs, err := positiveValues(dec, n, path)
+func valueRange(dec *networks.Decoder, n *yaml.Node, path, unit string) ([2]float64, error) {
+	vs, err := positiveValues(dec, n, path, unit)
 	if err != nil {
 		return [2]float64{}, err
 	}
@@ -276,13 +277,13 @@ func ParseStock(data []byte, name string) (*Stock, error) {
 		return nil, err
 	}
 	st := &Stock{File: name}
-	list := func(dst *[]float64) func(*yaml.Node, string) error {
-		return func(n *yaml.Node, path string) (err error) { *dst, err = positiveValues(dec, n, path); return }
+	list := func(dst *[]float64, unit string) func(*yaml.Node, string) error {
+		return func(n *yaml.Node, path string) (err error) { *dst, err = positiveValues(dec, n, path, unit); return }
 	}
 	err = dec.Map(doc, "",
-		networks.Key{Name: "resistors", Decode: list(&st.Resistors)},
-		networks.Key{Name: "capacitors", Decode: list(&st.Capacitors)},
-		networks.Key{Name: "pots", Decode: list(&st.Pots)})
+		networks.Key{Name: "resistors", Decode: list(&st.Resistors, "Ω")},
+		networks.Key{Name: "capacitors", Decode: list(&st.Capacitors, "F")},
+		networks.Key{Name: "pots", Decode: list(&st.Pots, "Ω")})
 	if err != nil {
 		return nil, err
 	}

@@ -43,7 +43,7 @@ func TestParseTargetsErrors(t *testing.T) {
 		{"knob", "targets:\n  scoop: {hz: 800, depth_db: -4, at: 1.5}\n", "t.yaml:2: targets.scoop.at: knob position 1.5 is outside 0..1"},
 		{"series", "parts:\n  resistors: E25\n", `t.yaml:2: parts.resistors: unknown series "E25": use one of E3, E6, E12, E24, E48, E96, E192, or a list`},
 		{"range", "parts:\n  resistor_range: [1M, 1k]\n", "t.yaml:2: parts.resistor_range: a range is two values, low then high"},
-		{"filters", "filters: -1\n", "t.yaml:1: filters: -1 sections: give a number from 0 to 32"},
+		{"filters", "filters: -1\n", "t.yaml:1: filters: -1 sections: give a number from 0 to 20"},
 		{"empty pots", "parts:\n  pots: []\n", "t.yaml:2: parts.pots: the list is empty"},
 		{"stock missing", "parts:\n  stock: nowhere.yaml\n", "t.yaml:2: parts.stock: cannot read the stock file"},
 		{"not yaml", "targets: [\n", "t.yaml:1: not valid YAML"},

@@ -34,7 +34,27 @@ func db(v float64) string {
 	return fmt.Sprintf("%+.1f dB", v)
 }
 
-// parseList reads a comma-separated list of part values (4.7k, 1M, 100).
+// flagValue reads one value given with --flag. A unit, if written, must be
+// want: "Ω" or "F"; "Hz" (for frequencies) takes no unit.
+func flagValue(flag, s, want string) (float64, error) {
+	v, unit, err := eseries.ParseUnit(strings.TrimSpace(s))
+	if err != nil {
+		return 0, usageErrorf("--%s: %v", flag, err)
+	}
+	if unit != "" && unit != want {
+		if want == "Hz" {
+			return 0, usageErrorf("--%s %q is in %s: a frequency takes no unit here, e.g. 5k", flag, s, unit)
+		}
+		return 0, usageErrorf("--%s %q is in %s: this flag takes a value in %s (or no unit)", flag, s, unit, want)
+	}
+	return v, nil
+}
+
+// unitOfFlag is the unit the list flags' values are in.
+var unitOfFlag = map[string]string{"resistors": "Ω", "capacitors": "F", "pots": "Ω", "source": "Ω", "load": "Ω"}
+
+// parseList reads a comma-separated list of part values (4.7k, 1M, 100),
+// in the unit unitOfFlag gives the flag.
 func parseList(flag, s string) ([]float64, error) {
 	var out []float64
 	for _, f := range strings.Split(s, ",") {
@@ -42,9 +62,9 @@ func parseList(flag, s string) ([]float64, error) {
 		if f == "" {
 			return nil, usageErrorf("--%s %q: an empty item: give values separated by single commas, e.g. 100,1k,4.7k", flag, s)
 		}
-		v, err := eseries.Parse(f)
+		v, err := flagValue(flag, f, unitOfFlag[flag])
 		if err != nil {
-			return nil, usageErrorf("--%s: %v", flag, err)
+			return nil, err
 		}
 		out = append(out, v)
 	}

@@ -10,7 +10,6 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"tonewright/eseries"
 	"tonewright/networks"
 )
 
@@ -103,9 +102,9 @@ func parseImpedances(flag, s string, load bool) ([]float64, error) {
 			out = append(out, math.Inf(1))
 			continue
 		}
-		v, err := eseries.Parse(f)
+		v, err := flagValue(flag, f, "Ω")
 		if err != nil {
-			return nil, usageErrorf("--%s: %v", flag, err)
+			return nil, err
 		}
 		if v < 0 || (load && v == 0) {
 			return nil, usageErrorf("--%s: %q is not a usable %s: give %s", flag, f, what, forms)

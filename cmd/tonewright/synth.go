@@ -218,9 +218,9 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 		if !set(name) {
 			return nil, nil
 		}
-		v, err := eseries.Parse(s)
+		v, err := flagValue(name, s, "Hz")
 		if err != nil {
-			return nil, usageErrorf("--%s: %v", name, err)
+			return nil, err
 		}
 		if !(v > 0) {
 			return nil, usageErrorf("--%s %s: %s must be positive, e.g. %s", name, s, what, flagExample[name])
@@ -271,8 +271,11 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 		t.CornerHz = v
 	}
 	if set("source") {
-		v, err := eseries.Parse(f.source)
-		if err != nil || v < 0 {
+		v, err := flagValue("source", f.source, "Ω")
+		if err != nil {
+			return err
+		}
+		if v < 0 {
 			return usageErrorf("--source %q: give the driving stage's output impedance, e.g. 6.8k or 0", f.source)
 		}
 		s := networks.Source{}
@@ -298,20 +301,24 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 		if set("load") {
 			if strings.EqualFold(strings.TrimSpace(f.load), "open") {
 				l.R = math.Inf(1)
-			} else if l.R, err = eseries.Parse(f.load); err != nil || !(l.R > 0) {
+			} else if l.R, err = flagValue("load", f.load, "Ω"); err != nil {
+				return err
+			} else if !(l.R > 0) {
 				return usageErrorf("--load %q: give the load resistance, e.g. 1M, or open", f.load)
 			}
 		}
 		if set("load-c") {
-			if l.C, err = eseries.Parse(f.loadC); err != nil || l.C < 0 {
+			if l.C, err = flagValue("load-c", f.loadC, "F"); err != nil {
+				return err
+			} else if l.C < 0 {
 				return usageErrorf("--load-c %q: give the load capacitance, e.g. 470p, or 0", f.loadC)
 			}
 		}
 		p.Load = &l
 	}
 	if set("filters") {
-		if f.filters < 0 || f.filters > 32 {
-			return usageErrorf("--filters %d: give a number of sections from 0 to 32", f.filters)
+		if f.filters < 0 || f.filters > networks.MaxFilters {
+			return usageErrorf("--filters %d: give a number of sections from 0 to %d", f.filters, networks.MaxFilters)
 		}
 		n := f.filters
 		p.Filters = &n
@@ -471,6 +478,11 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 		case synth.CauseParts:
 			fmt.Fprintf(w, "%s\n", partsCause(res))
 		default:
+			if held := heldParts(res); len(held) > 0 {
+				fmt.Fprintf(w, "the ideal values of the free parts miss too: with %s held as they are, these targets are out of reach;\n", strings.Join(held, ", "))
+				fmt.Fprintln(w, "free more parts (--free) to see what the whole network can give; the ideal column shows the nearest achievable figures")
+				break
+			}
 			fmt.Fprintln(w, "the ideal parts miss too: these targets ask for more than the network, band and surroundings can give;")
 			fmt.Fprintln(w, "the ideal column shows the nearest achievable figures")
 		}
@@ -620,9 +632,25 @@ func unmetMessage(res *synth.Result) string {
 	case synth.CauseParts:
 		msg += " (" + partsCause(res) + ")"
 	default:
+		if held := heldParts(res); len(held) > 0 {
+			msg += " (out of reach with " + strings.Join(held, ", ") + " held; free more parts with --free)"
+			break
+		}
 		msg += " (beyond what this network can give; see the nearest achievable figures above)"
 	}
 	return msg
+}
+
+// heldParts lists the parts a re-voicing kept fixed because --free left
+// them out (the level pot, never designed, is not listed).
+func heldParts(res *synth.Result) []string {
+	var held []string
+	for _, p := range res.Parts {
+		if !p.Free && p.Name != "level" {
+			held = append(held, p.Name)
+		}
+	}
+	return held
 }
 
 // plotSynth draws the chosen design at the standard knob positions with the
