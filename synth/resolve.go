@@ -138,7 +138,7 @@ func (p *Problem) goal(d *networks.Design) (goal, error) {
 		// fall 3 dB by 10 × band top). A corner target then cannot be
 		// met, and aiming at it only drags the scoop away.
 		if len(d.Filters) == 0 && d.Load.C == 0 {
-			return g, fieldErrorf("targets.corner_hz", "the corner target (%s Hz) needs at least one filter section or a load capacitance, and this synthesis has neither: "+
+			return g, fieldErrorf("targets.corner_hz", "the corner target (%sHz) needs at least one filter section or a load capacitance, and this synthesis has neither: "+
 				"add sections (filters: 1 or --filters 1) or the load's capacitance (load: {c: 470p} or --load-c 470p), or drop the corner target (corner_hz / --corner)",
 				eseries.Format(*t.CornerHz))
 		}

@@ -172,7 +172,7 @@ func writeSweep(w io.Writer, d *networks.Design, res *networks.SweepResult) {
 	}
 	tw.Flush()
 	fmt.Fprintln(w, "\nΔ: shift from the design's own values, levels in dB, frequencies in % (100·(f/f_design − 1));")
-	fmt.Fprintln(w, "–: the design or the row has no scoop. Corner: knob 1, −3 dB.")
+	fmt.Fprintln(w, "–: the design or the row has no scoop (or no corner). Corner: knob 1, −3 dB.")
 }
 
 // metricsLine summarises study metrics on one line.

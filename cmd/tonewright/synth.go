@@ -389,6 +389,11 @@ func flagSet(name, s string) (eseries.Set, error) {
 	return l, nil
 }
 
+// heavyLossDB is the insertion loss beyond which the report warns: more
+// than a gain stage usually has to spare (common practice, no published
+// source).
+const heavyLossDB = -40
+
 // writeSynthReport prints the parts table, the targets table and, when
 // re-voicing, the swaps.
 func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
@@ -441,6 +446,9 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 	}
 	tw.Flush()
 	fmt.Fprintf(w, "\ngain at 1 kHz (knob 0.5): ideal %s, chosen %s\n", db(res.IdealMetrics.Gain1kDB), db(res.Metrics.Gain1kDB))
+	if res.Metrics.Gain1kDB < heavyLossDB {
+		fmt.Fprintf(w, "note: the section loses %.0f dB at 1 kHz; the stage before it must make that up, and noise and hum pick-up grow with it\n", -res.Metrics.Gain1kDB)
+	}
 	fmt.Fprintf(w, "tolerances: ideal parts %.1f %% and %.1f dB, chosen parts %.0f %% and %.0f dB (* marks a miss)\n",
 		100*synth.IdealTolerance.Freq, synth.IdealTolerance.Level, 100*synth.PartsTolerance.Freq, synth.PartsTolerance.Level)
 
