@@ -118,3 +118,60 @@ func TestCheckJSON(t *testing.T) {
 		t.Errorf("got  %s\nwant %s", b, want)
 	}
 }
+
+// exampleBoard is an invented board for tests, not a real product: the
+// values of testdata/example-board.yaml (a 6.8 kΩ stage through 100 nF, a
+// 100 kΩ audio level pot at 1 into 1 MΩ, two RC sections).
+func exampleBoard() *networks.Design {
+	d := knownDesign(27e3, 12e-9, 2.2e-9, 56e3, 100e3, 10e3, 1e-9, 6.8e3, 2)
+	d.Name = "invented example board"
+	d.Source.SeriesC = 100e-9
+	d.Level = &networks.LevelSetting{Pot: networks.PotPart{Value: 100e3, Taper: networks.Taper{Law: networks.Audio}}, Position: 1}
+	return d
+}
+
+// The swaps the unlimited search lists when one change misses are no more
+// than a limited search needs: moving the invented example board's scoop
+// to 600 Hz meets every target with at most 5 changes, so the search
+// without a limit must not ask for more (before the pruning pass it
+// listed 9).
+func TestUnlimitedSwapsPruned(t *testing.T) {
+	if testing.Short() {
+		t.Skip("two re-voicings over every part")
+	}
+	d := exampleBoard()
+	r, err := Solve(&Problem{Targets: Targets{ScoopHz: ptr(600.0)}, From: d, MaxChanges: 1}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Met || r.Cause != CauseMaxChanges || r.Unlimited == nil || !r.Unlimited.Met {
+		t.Fatalf("met %v, cause %q, unlimited %+v: the test needs a limit that blocks the targets", r.Met, r.Cause, r.Unlimited)
+	}
+	five, err := Solve(&Problem{Targets: Targets{ScoopHz: ptr(600.0)}, From: d, MaxChanges: 5}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !five.Met {
+		t.Fatalf("5 changes miss: %+v", five.Checks)
+	}
+	if n := len(r.Unlimited.Changes); n > len(five.Changes) {
+		t.Errorf("without the limit %d swaps, with at most 5 changes %d meet every target: %+v", n, len(five.Changes), r.Unlimited.Changes)
+	}
+}
+
+// A target out of reach of the free parts yields no pointless swaps: with
+// only the filter sections' resistors free, the invented example board's
+// scoop cannot come near 600 Hz, and moving them shifts it by under 1 %,
+// so the re-voicing swaps nothing.
+func TestMissedTargetNoPointlessSwaps(t *testing.T) {
+	r, err := Solve(&Problem{Targets: Targets{ScoopHz: ptr(600.0)}, From: exampleBoard(), Free: []string{"filters.r"}}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Met {
+		t.Fatalf("the target was met: the test needs one out of reach")
+	}
+	if len(r.Changes) != 0 {
+		t.Errorf("swaps %+v for a target missed anyway: %+v", r.Changes, r.Checks)
+	}
+}

@@ -71,12 +71,15 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 			}
 		}
 	}
+	if p.From != nil {
+		best = prune(base, g, best, tol)
+	}
 	// A limited re-voicing that misses: would the design meet the targets
 	// without the limit? Then the limit is the cause, not the network.
 	var free *run
 	if limited && !best.met {
 		pr.total += runEstimate(len(vars), false)
-		free = unlimited(base, g, vars, s, rng, pr, tol, []*run{best})
+		free = prune(base, g, unlimited(base, g, vars, s, rng, pr, tol, []*run{best}), tol)
 	}
 	pr.done()
 	res := best.result(p, base, g, tol, 0)
