@@ -337,15 +337,8 @@ func (mf *manifold) f(z []float64) float64 {
 	copy(mf.x, mf.best)
 	pen := 0.0
 	for q, j := range mf.free {
-		v := &e.vars[j]
-		zq := z[q]
-		if zq < v.lo {
-			pen += sq(v.lo - zq)
-			zq = v.lo
-		} else if zq > v.hi {
-			pen += sq(zq - v.hi)
-			zq = v.hi
-		}
+		zq, p := e.vars[j].clamp(z[q])
+		pen += p
 		mf.x[j] = zq
 	}
 	gain, ss, ok := mf.restore(mf.x, restoreSteps)

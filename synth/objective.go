@@ -214,20 +214,26 @@ func loss(e float64) float64 {
 
 func sq(x float64) float64 { return x * x }
 
+// clamp returns a log value held within the variable's bounds and the
+// squared distance it was moved, the penalty for leaving them.
+func (v *variable) clamp(x float64) (float64, float64) {
+	switch {
+	case x < v.lo:
+		return v.lo, sq(v.lo - x)
+	case x > v.hi:
+		return v.hi, sq(x - v.hi)
+	}
+	return x, 0
+}
+
 // setLog writes the variables' values exp(x[i]), clamped to their bounds,
 // and returns the penalty for leaving them.
 func (e *evaluator) setLog(x []float64) float64 {
 	pen := 0.0
 	for i := range e.vars {
 		v := &e.vars[i]
-		xi := x[i]
-		if xi < v.lo {
-			pen += sq(v.lo - xi)
-			xi = v.lo
-		} else if xi > v.hi {
-			pen += sq(xi - v.hi)
-			xi = v.hi
-		}
+		xi, p := v.clamp(x[i])
+		pen += p
 		val := math.Exp(xi)
 		for _, s := range v.slots {
 			*s = val

@@ -110,9 +110,6 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 			inputs = append(inputs, p.Parts.Stock.File)
 		}
 	}
-	if err := applySynthFlags(cmd, f, p); err != nil {
-		return err
-	}
 	if f.from != "" {
 		d, err := loadDesign(f.from)
 		if err != nil {
@@ -122,6 +119,9 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		inputs = append(inputs, f.from)
 	} else if cmd.Flags().Changed("free") || cmd.Flags().Changed("max-changes") {
 		return usageErrorf("--free and --max-changes re-voice an existing design: give it with --from DESIGN.yaml")
+	}
+	if err := applySynthFlags(cmd, f, p); err != nil {
+		return err
 	}
 	if f.stock != "" {
 		inputs = append(inputs, f.stock)
@@ -290,13 +290,9 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 		switch {
 		case p.Load != nil:
 			l = *p.Load
-		case f.from != "":
-			// Filled in from the design below, keeping what is not given.
-			d, err := loadDesign(f.from)
-			if err != nil {
-				return err
-			}
-			l = d.Load
+		case p.From != nil:
+			// The design's load, keeping what the flags do not give.
+			l = p.From.Load
 		}
 		if set("load") {
 			if strings.EqualFold(strings.TrimSpace(f.load), "open") {
