@@ -7,19 +7,11 @@ import (
 	"tonewright/networks"
 )
 
-// The margins of the pruning pass (prune). pruneMetMargin is how much
-// undoing swaps may raise the cost of a design that meets every target: a
-// tenth of what one figure off by the chosen parts' tolerance costs (about
-// one figure moving by a third of that tolerance from dead on), small
-// against the tolerance the design is promised to.
-// pruneMissGain is, for a design that misses, the least progress on a
+// The margin of the pruning pass (prune): pruneMissGain is, for a design that misses, the least progress on a
 // missed target, in units of the tolerance it is judged by (a quarter:
 // 1.25 % of frequency or 0.25 dB with PartsTolerance), that makes swaps
 // worth keeping.
-var (
-	pruneMetMargin = 0.1 * lossAtTolerance
-	pruneMissGain  = 0.25
-)
+var pruneMissGain = 0.25
 
 // standing is how a re-voicing's values fare: the cost, and target by
 // target whether it is met, whether its figure was found and its error in
@@ -62,8 +54,8 @@ func (s standing) misses() int {
 }
 
 // serves reports whether s does what ref does: every target ref meets
-// still met and, when ref meets them all, a cost no more than
-// pruneMetMargin above ref's; when ref misses some, no missed target found
+// still met (a re-voicing that meets them all wants the fewest changes,
+// not the closest figures); when ref misses some, no missed target found
 // by ref lost or pushed pruneMissGain or more further off.
 func (s standing) serves(ref standing) bool {
 	for i := range ref.met {
@@ -74,16 +66,15 @@ func (s standing) serves(ref standing) bool {
 			return false
 		}
 	}
-	return ref.misses() > 0 || s.cost <= ref.cost+pruneMetMargin
+	return true
 }
 
 // prune undoes the swaps of a re-voicing that buy nothing. It restores the
 // changed parts of r to their original values one at a time, letting the
 // parts still changed settle by single steps in their sets (settle), and
 // keeps a restoration while the design still serves as r does (see
-// standing.serves: the same targets met, and the cost about as low when r
-// meets them all, the misses no meaningfully worse when not); of the
-// restorations that qualify it keeps the one of the lowest cost (ties: the
+// standing.serves: the same targets met, the misses no meaningfully
+// worse); of the restorations that qualify it keeps the one of the lowest cost (ties: the
 // earlier part), and stops when none does. The comparison is always with
 // r, so restorations cannot drift away from it by small steps. It returns
 // r itself when nothing is restored, else a new run. It is deterministic.
@@ -154,7 +145,3 @@ func settle(e *evaluator, vars []variable, vals []float64) []float64 {
 	}
 	return vals
 }
-
-// lossAtTolerance is the cost of one figure off by the chosen parts'
-// tolerance (lossScale units of IdealTolerance).
-var lossAtTolerance = loss(lossScale)
