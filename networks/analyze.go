@@ -1,23 +1,41 @@
 package networks
 
 import (
+	"encoding/json"
 	"fmt"
-	"math"
-	"math/cmplx"
 )
 
 // ImpedanceBlend is the blend knob position at which Analyze reports the
-// input and output impedances: the centre.
+// input and output impedances of a blend design: the centre.
 const ImpedanceBlend = 0.5
+
+// ImpedanceHz is the frequency at which Analyze reports the impedances.
+const ImpedanceHz = 1000
 
 // DefaultPositions are the knob positions Analyze reports by default.
 var DefaultPositions = []float64{0, 0.25, 0.5, 0.75, 1}
 
-// PositionMetrics are the metrics of a design at one blend knob position.
+// PositionMetrics are the figures of a design at one knob setting.
 type PositionMetrics struct {
-	Blend    float64 `json:"blend"`
-	Gain1kDB float64 `json:"gain_1k_db"`
-	Scoop    *Scoop  `json:"scoop"` // nil when the curve has no interior minimum
+	Blend       float64  `json:"blend"` // the blend knob; written for designs that have one
+	Knobs       Setting  `json:"knobs"`
+	Gain1kDB    float64  `json:"gain_1k_db"`
+	Scoop       *Scoop   `json:"scoop"` // nil when the curve has no scoop
+	Peak        *Peak    `json:"peak"`  // nil when it has no peak
+	CornerHz    *float64 `json:"corner_hz"`
+	LowCornerHz *float64 `json:"low_corner_hz"`
+}
+
+// MarshalJSON leaves "blend" out for a setting without a blend knob.
+func (p PositionMetrics) MarshalJSON() ([]byte, error) {
+	type plain PositionMetrics
+	if _, ok := p.Knobs[BlendKnob]; ok {
+		return json.Marshal(plain(p))
+	}
+	return json.Marshal(struct {
+		Blend *struct{} `json:"blend,omitempty"`
+		plain
+	}{plain: plain(p)})
 }
 
 // Analysis is what the analyze command reports; its JSON keys are read by
@@ -26,13 +44,29 @@ type Analysis struct {
 	Name               string            `json:"name"`
 	Band               Band              `json:"band"`
 	Positions          []PositionMetrics `json:"positions"`
-	CornerHz           *float64          `json:"corner_hz"` // at knob 1; nil when none
+	CornerHz           *float64          `json:"corner_hz"` // blend designs: at blend knob 1; nil when none
 	InputImpedanceOhm  float64           `json:"input_impedance_ohm"`
 	OutputImpedanceOhm float64           `json:"output_impedance_ohm"`
-	ImpedanceBlend     float64           `json:"impedance_blend"`
+	ImpedanceBlend     float64           `json:"impedance_blend"` // blend designs
+	ImpedanceKnobs     Setting           `json:"impedance_knobs"`
+	Blend              bool              `json:"-"` // a blend design: CornerHz and ImpedanceBlend apply
 }
 
-// MarshalJSON keys for Band.
+// MarshalJSON leaves corner_hz and impedance_blend out for designs without
+// a blend knob.
+func (a Analysis) MarshalJSON() ([]byte, error) {
+	type plain Analysis
+	if a.Blend {
+		return json.Marshal(plain(a))
+	}
+	return json.Marshal(struct {
+		CornerHz       *struct{} `json:"corner_hz,omitempty"`
+		ImpedanceBlend *struct{} `json:"impedance_blend,omitempty"`
+		plain
+	}{plain: plain(a)})
+}
+
+// Band MarshalJSON keys.
 func (b Band) MarshalJSON() ([]byte, error) {
 	return []byte(fmt.Sprintf(`{"from":%g,"to":%g}`, b.From, b.To)), nil
 }
@@ -50,41 +84,87 @@ func CheckPositions(ps []float64) error {
 	return nil
 }
 
-// Analyze measures a valid design at the given blend positions: the gain at
-// 1 kHz and the scoop at each, the output corner at knob 1, and the
-// magnitudes of the input and output impedances at 1 kHz with the blend at
-// ImpedanceBlend.
+// Analyze measures a valid design with its swept knob (SweptKnob, or its
+// first knob when every knob has a position) at each of positions, the
+// other knobs at theirs. See AnalyzeSettings.
 func Analyze(d *Design, positions []float64) (*Analysis, error) {
-	if err := d.Validate(); err != nil {
-		return nil, err
-	}
 	if err := CheckPositions(positions); err != nil {
 		return nil, err
 	}
+	var lists []KnobList
+	if k := d.SweptKnob(); k != "" {
+		lists = []KnobList{{k, positions}}
+	} else if ks := d.Knobs(); len(ks) > 0 {
+		lists = []KnobList{{ks[0].Name, positions}}
+	}
+	ss, err := d.Settings(lists)
+	if err != nil {
+		return nil, err
+	}
+	return AnalyzeSettings(d, ss)
+}
+
+// AnalyzeSettings measures a valid design at each knob setting: the gain at
+// 1 kHz, the scoop, the peak, the corner and the low corner; then the
+// magnitudes of the input and output impedances at ImpedanceHz with the
+// knobs at the design's own setting (a knob without a position at the
+// centre), and for a blend design the output corner at blend knob 1.
+func AnalyzeSettings(d *Design, settings []Setting) (*Analysis, error) {
+	if err := d.Validate(); err != nil {
+		return nil, err
+	}
+	if len(settings) == 0 {
+		return nil, fmt.Errorf("no knob settings given")
+	}
 	m := NewMeter(d.Band)
-	a := &Analysis{Name: d.Name, Band: d.Band, ImpedanceBlend: ImpedanceBlend}
-	var k Compiled
-	for _, p := range positions {
-		c := d.Chain(p)
-		c.CompileInto(&k)
-		pm := PositionMetrics{Blend: p, Gain1kDB: Gain1k(&k)}
-		if s, ok := m.Scoop(&k); ok {
-			pm.Scoop = &s
+	a := &Analysis{Name: d.Name, Band: d.Band, Blend: d.Tone.Network == BlendNetwork}
+	for _, s := range settings {
+		s = d.complete(s)
+		e, err := d.Compile(s)
+		if err != nil {
+			return nil, err
 		}
+		pm := MeasureAt(m, e)
+		pm.Knobs, pm.Blend = s, s[BlendKnob]
 		a.Positions = append(a.Positions, pm)
 	}
-	a.CornerHz = CornerOf(d, m)
-	c := d.Chain(ImpedanceBlend)
-	c.CompileInto(&k)
-	a.InputImpedanceOhm = cmplx.Abs(k.InputImpedance(1000))
-	a.OutputImpedanceOhm = cmplx.Abs(k.OutputImpedance(1000))
-	if math.IsInf(a.InputImpedanceOhm, 0) || math.IsNaN(a.InputImpedanceOhm) {
-		return nil, fmt.Errorf("input impedance is not finite")
+	own, err := d.Setting(nil)
+	if err != nil {
+		return nil, err
+	}
+	a.ImpedanceKnobs = own
+	if a.Blend {
+		a.ImpedanceBlend = own[BlendKnob]
+		a.CornerHz = CornerOf(d, m)
+	}
+	a.InputImpedanceOhm, a.OutputImpedanceOhm, err = d.Impedances(own, ImpedanceHz)
+	if err != nil {
+		return nil, err
 	}
 	return a, nil
 }
 
-// CornerOf returns the design's output corner (knob 1), nil when none.
+// MeasureAt returns every figure of one response: the gain at 1 kHz, the
+// scoop, the peak, the corner and the low corner (Knobs left empty).
+func MeasureAt(m *Meter, r Response) PositionMetrics {
+	pm := PositionMetrics{Gain1kDB: Gain1k(r)}
+	if s, ok := m.Scoop(r); ok {
+		pm.Scoop = &s
+	}
+	if p, ok := m.Peak(r); ok {
+		pm.Peak = &p
+	}
+	if hz, ok := m.Corner(r); ok {
+		pm.CornerHz = &hz
+	}
+	if hz, ok := m.LowCorner(r); ok {
+		pm.LowCornerHz = &hz
+	}
+	return pm
+}
+
+// CornerOf returns a blend design's output corner (blend knob 1, the level
+// at its position), nil when none.
 func CornerOf(d *Design, m *Meter) *float64 {
 	c := d.Chain(1)
 	k := c.Compile()

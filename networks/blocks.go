@@ -53,13 +53,34 @@ func (s Source) build(n *Network, in string) (drive string) {
 	return in
 }
 
-// Build adds the blend network from node in to the wiper node out.
+// Build adds the blend network from node in to the wiper node out: its
+// netlist parts (Parts) at the pot's position.
 func (b Blend) Build(n *Network, in, out string) {
-	n.Resistor("Rlp", in, "lp", b.Lowpass.R)
-	n.Capacitor("Clp", "lp", Ground, b.Lowpass.C)
-	n.Capacitor("Chp", in, "hp", b.Highpass.C)
-	n.Resistor("Rhp", "hp", Ground, b.Highpass.R)
-	n.Potentiometer("Ptone", "lp", out, "hp", b.Pot)
+	buildParts(n, b.Parts(), Setting{BlendKnob: b.Pot.Position}, func(node string) string {
+		switch node {
+		case NetIn:
+			return in
+		case NetOut:
+			return out
+		case NetGnd:
+			return Ground
+		}
+		return node
+	})
+}
+
+// Parts returns the blend network in the netlist form, the one circuit its
+// short keys stand for: the low-pass leg Rlp (in–lp) and Clp (lp–gnd), the
+// high-pass leg Chp (in–hp) and Rhp (hp–gnd), and the pot Ptone from lp
+// (knob 0) to hp with its wiper at out, on the knob "blend".
+func (b Blend) Parts() []NetPart {
+	return []NetPart{
+		{Name: "Rlp", Kind: PartResistor, Value: b.Lowpass.R, From: NetIn, To: "lp"},
+		{Name: "Clp", Kind: PartCapacitor, Value: b.Lowpass.C, From: "lp", To: NetGnd},
+		{Name: "Chp", Kind: PartCapacitor, Value: b.Highpass.C, From: NetIn, To: "hp"},
+		{Name: "Rhp", Kind: PartResistor, Value: b.Highpass.R, From: "hp", To: NetGnd},
+		{Name: "Ptone", Kind: PartPot, Value: b.Pot.Value, From: "lp", To: "hp", Wiper: NetOut, Taper: b.Pot.Taper, Knob: BlendKnob},
+	}
 }
 
 // admittances returns the blend network's short-circuit admittance

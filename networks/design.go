@@ -17,13 +17,14 @@ type Design struct {
 	Load    Load
 }
 
-// Tone is the tone network of a design. Network names its topology; "blend"
-// is the one there is.
+// Tone is the tone network of a design. Network names its form: "blend"
+// (Lowpass, Highpass and Pot) or "netlist" (Parts).
 type Tone struct {
 	Network  string
 	Lowpass  RC
 	Highpass RC
 	Pot      PotPart
+	Parts    []NetPart // the netlist form, in file order
 }
 
 // PotPart is a pot as a part: track value and taper, without a position.
@@ -49,8 +50,19 @@ const BlendNetwork = "blend"
 // capacitance.
 var DefaultLoad = Load{R: 1e6}
 
-// Chain returns the design's chain with the blend knob at position blend.
+// Chain returns the blend design's chain with the blend knob at position
+// blend and the level at its position.
 func (d *Design) Chain(blend float64) Chain {
+	s := Setting{BlendKnob: blend}
+	if d.Level != nil {
+		s[LevelKnob] = d.Level.Position
+	}
+	return d.ChainAt(s)
+}
+
+// ChainAt returns the blend design's chain at the knob setting s.
+func (d *Design) ChainAt(s Setting) Chain {
+	blend := s[BlendKnob]
 	c := Chain{
 		Source:  d.Source,
 		Blend:   Blend{Lowpass: d.Tone.Lowpass, Highpass: d.Tone.Highpass, Pot: Pot{Value: d.Tone.Pot.Value, Taper: d.Tone.Pot.Taper, Position: blend}},
@@ -58,7 +70,11 @@ func (d *Design) Chain(blend float64) Chain {
 		Load:    d.Load,
 	}
 	if d.Level != nil {
-		c.Level = &Level{Pot: Pot{Value: d.Level.Pot.Value, Taper: d.Level.Pot.Taper, Position: d.Level.Position}}
+		lv, ok := s[LevelKnob]
+		if !ok {
+			lv = d.Level.Position
+		}
+		c.Level = &Level{Pot: Pot{Value: d.Level.Pot.Value, Taper: d.Level.Pot.Taper, Position: lv}}
 	}
 	return c
 }
@@ -75,16 +91,29 @@ func (d *Design) Validate() error {
 	if !nonNegative(d.Source.SeriesC) {
 		return fieldError("source.series_c", fmt.Errorf("%v F must be zero (none) or positive and finite", d.Source.SeriesC))
 	}
-	if d.Tone.Network != BlendNetwork {
-		return fieldError("tone.network", fmt.Errorf("unknown network %q: use %q", d.Tone.Network, BlendNetwork))
+	if d.Tone.Network != BlendNetwork && d.Tone.Network != NetlistNetwork {
+		return fieldError("tone.network", fmt.Errorf("unknown network %q: use %s", d.Tone.Network, strings.Join(ToneNetworks(), ", ")))
 	}
 	if len(d.Filters) > MaxFilters {
 		return fieldError("filters", fmt.Errorf("%d sections: at most %d are supported", len(d.Filters), MaxFilters))
 	}
-	checks := []keyed{
-		{"tone.lowpass.r", d.Tone.Lowpass.R}, {"tone.lowpass.c", d.Tone.Lowpass.C},
-		{"tone.highpass.c", d.Tone.Highpass.C}, {"tone.highpass.r", d.Tone.Highpass.R},
-		{"tone.pot.value", d.Tone.Pot.Value},
+	var checks []keyed
+	if d.Tone.Network == BlendNetwork {
+		checks = []keyed{
+			{"tone.lowpass.r", d.Tone.Lowpass.R}, {"tone.lowpass.c", d.Tone.Lowpass.C},
+			{"tone.highpass.c", d.Tone.Highpass.C}, {"tone.highpass.r", d.Tone.Highpass.R},
+			{"tone.pot.value", d.Tone.Pot.Value},
+		}
+	} else {
+		if err := checkNetlist(d.Tone.Parts, d.Level != nil); err != nil {
+			return err
+		}
+		for _, p := range d.Tone.Parts {
+			checks = append(checks, keyed{"tone.parts." + p.Name + "." + p.Kind.key(), p.Value})
+			if err := p.Taper.check(); err != nil {
+				return fieldError("tone.parts."+p.Name+".midpoint", err)
+			}
+		}
 	}
 	for i, f := range d.Filters {
 		checks = append(checks, keyed{fmt.Sprintf("filters[%d].r", i), f.R}, keyed{fmt.Sprintf("filters[%d].c", i), f.C})
@@ -112,8 +141,10 @@ func (d *Design) Validate() error {
 			return fieldError("load.r", err)
 		}
 	}
-	if err := d.Tone.Pot.Taper.check(); err != nil {
-		return fieldError("tone.pot.midpoint", err)
+	if d.Tone.Network == BlendNetwork {
+		if err := d.Tone.Pot.Taper.check(); err != nil {
+			return fieldError("tone.pot.midpoint", err)
+		}
 	}
 	if d.Level != nil {
 		if err := d.Level.Pot.Taper.check(); err != nil {
@@ -129,6 +160,11 @@ func (d *Design) Validate() error {
 	if !nonNegative(d.Load.C) {
 		return fieldError("load.c", fmt.Errorf("%v F must be zero (none) or positive and finite", d.Load.C))
 	}
+	if d.Tone.Network == NetlistNetwork {
+		if _, err := d.Network(nil).Compile(); err != nil {
+			return fieldError("tone.parts", err)
+		}
+	}
 	return nil
 }
 
@@ -141,15 +177,23 @@ type keyed struct {
 // The range of values a part may have: far wider than any tone section
 // uses, narrow enough that the arithmetic stays finite.
 const (
-	MinOhms   = 1e-3
-	MaxOhms   = 1e12
-	MinFarads = 1e-15
-	MaxFarads = 1
+	MinOhms    = 1e-3
+	MaxOhms    = 1e12
+	MinFarads  = 1e-15
+	MaxFarads  = 1
+	MinHenries = 1e-9
+	MaxHenries = 1e3
 )
 
 // plausible checks a value against the range for its kind, told by the
 // key's last letter (.c and series_c are capacitances).
 func plausible(key string, v float64) error {
+	if strings.HasSuffix(key, ".l") {
+		if v < MinHenries || v > MaxHenries {
+			return fmt.Errorf("%s H is outside %s–%s H: is the prefix right (µ, m)?", trimG(v), trimG(MinHenries), trimG(MaxHenries))
+		}
+		return nil
+	}
 	if strings.HasSuffix(key, ".c") || strings.HasSuffix(key, "series_c") {
 		if v < MinFarads || v > MaxFarads {
 			return fmt.Errorf("%s F is outside %s–%s F: is the prefix right (p, n, u)?", trimG(v), trimG(MinFarads), trimG(MaxFarads))

@@ -68,25 +68,166 @@ func ParseDesign(data []byte, file string) (*Design, error) {
 
 func (dec *Decoder) tone(n *yaml.Node, path string, t *Tone) error {
 	t.Network = BlendNetwork
-	seen := map[string]bool{}
-	mark := func(k string, f func(*yaml.Node, string) error) Key {
-		return Key{k, func(n *yaml.Node, p string) error { seen[k] = true; return f(n, p) }}
-	}
-	err := dec.Map(n, path,
-		mark("network", func(n *yaml.Node, p string) (err error) { t.Network, err = dec.String(n, p); return }),
-		mark("lowpass", func(n *yaml.Node, p string) error { return dec.RC(n, p, &t.Lowpass) }),
-		mark("highpass", func(n *yaml.Node, p string) error { return dec.RC(n, p, &t.Highpass) }),
-		mark("pot", func(n *yaml.Node, p string) error { return dec.Pot(n, p, &t.Pot) }),
-	)
-	if err != nil {
-		return err
-	}
-	for _, k := range []string{"lowpass", "highpass", "pot"} {
-		if !seen[k] {
-			return dec.Errorf(n, path, "missing key %s: the blend network needs lowpass {r, c}, highpass {c, r} and pot", k)
+	if n.Kind == yaml.MappingNode {
+		for i := 0; i+1 < len(n.Content); i += 2 {
+			if n.Content[i].Value == "network" {
+				s, err := dec.String(n.Content[i+1], join(path, "network"))
+				if err != nil {
+					return err
+				}
+				t.Network = s
+			}
 		}
 	}
+	keep := func(n *yaml.Node, p string) error { return nil } // network, read above
+	switch t.Network {
+	case BlendNetwork:
+		seen := map[string]bool{}
+		mark := func(k string, f func(*yaml.Node, string) error) Key {
+			return Key{k, func(n *yaml.Node, p string) error { seen[k] = true; return f(n, p) }}
+		}
+		err := dec.Map(n, path,
+			Key{"network", keep},
+			mark("lowpass", func(n *yaml.Node, p string) error { return dec.RC(n, p, &t.Lowpass) }),
+			mark("highpass", func(n *yaml.Node, p string) error { return dec.RC(n, p, &t.Highpass) }),
+			mark("pot", func(n *yaml.Node, p string) error { return dec.Pot(n, p, &t.Pot) }),
+		)
+		if err != nil {
+			return err
+		}
+		for _, k := range []string{"lowpass", "highpass", "pot"} {
+			if !seen[k] {
+				return dec.Errorf(n, path, "missing key %s: the blend network needs lowpass {r, c}, highpass {c, r} and pot", k)
+			}
+		}
+		return nil
+	case NetlistNetwork:
+		have := false
+		err := dec.Map(n, path,
+			Key{"network", keep},
+			Key{"parts", func(n *yaml.Node, p string) error { have = true; return dec.netParts(n, p, &t.Parts) }},
+		)
+		if err == nil && !have {
+			err = dec.Errorf(n, path, "missing key parts: the netlist form lists its parts, e.g. parts: {R1: {r: 10k, from: in, to: out}, C1: {c: 10n, from: out, to: gnd}}")
+		}
+		return err
+	}
+	return dec.Errorf(n, join(path, "network"), "unknown network %q: use %s", t.Network, strings.Join(ToneNetworks(), ", "))
+}
+
+// partForms is how a netlist part is written, for error messages.
+const partForms = "{r: 10k, from: a, to: b}, {c: 22n, from: a, to: b}, {l: 500m, from: a, to: b} or {pot: 250k, taper: audio, from: a, to: b, wiper: c}"
+
+// netParts reads the netlist's parts: a mapping from each part's name to
+// its kind and value, its nodes and, for a pot, its wiper, taper and knob.
+func (dec *Decoder) netParts(n *yaml.Node, path string, parts *[]NetPart) error {
+	if n.Kind != yaml.MappingNode {
+		return dec.Errorf(n, path, "must be a mapping from part names to parts such as %s, got %s", partForms, describe(n))
+	}
+	dec.mark(path, n)
+	seen := map[string]bool{}
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		kn, vn := n.Content[i], n.Content[i+1]
+		p := join(path, kn.Value)
+		if seen[kn.Value] {
+			return dec.Errorf(kn, p, "part name given twice")
+		}
+		seen[kn.Value] = true
+		if !nodeName.MatchString(kn.Value) {
+			return dec.Errorf(kn, p, "part name %q: use letters, digits and _", kn.Value)
+		}
+		dec.mark(p, vn)
+		part, err := dec.netPart(vn, p, kn.Value)
+		if err != nil {
+			return err
+		}
+		*parts = append(*parts, part)
+	}
 	return nil
+}
+
+func (dec *Decoder) netPart(n *yaml.Node, path, name string) (NetPart, error) {
+	part := NetPart{Name: name, Taper: Taper{Law: Linear}}
+	var kinds []string
+	kind := func(k PartKind, unit string) Key {
+		return Key{k.key(), func(n *yaml.Node, p string) (err error) {
+			kinds = append(kinds, k.key())
+			part.Kind = k
+			part.Value, err = dec.ValueIn(n, p, unit)
+			return
+		}}
+	}
+	node := func(dst *string) func(*yaml.Node, string) error {
+		return func(n *yaml.Node, p string) (err error) { *dst, err = dec.String(n, p); return }
+	}
+	var potOnly []string
+	only := func(k string, f func(*yaml.Node, string) error) Key {
+		return Key{k, func(n *yaml.Node, p string) error { potOnly = append(potOnly, k); return f(n, p) }}
+	}
+	var mid float64
+	haveMid := false
+	err := dec.Map(n, path,
+		kind(PartResistor, "Ω"), kind(PartCapacitor, "F"), kind(PartInductor, "H"), kind(PartPot, "Ω"),
+		Key{"from", node(&part.From)}, Key{"to", node(&part.To)},
+		only("wiper", node(&part.Wiper)),
+		only("taper", func(n *yaml.Node, p string) error {
+			s, err := dec.String(n, p)
+			if err != nil {
+				return err
+			}
+			t, err := ParseTaper(s)
+			if err != nil {
+				return dec.Errorf(n, p, "%v", err)
+			}
+			part.Taper.Law = t.Law
+			return nil
+		}),
+		only("midpoint", func(n *yaml.Node, p string) (err error) { haveMid = true; mid, err = dec.Number(n, p); return }),
+		only("knob", node(&part.Knob)),
+		only("position", func(n *yaml.Node, p string) error {
+			v, err := dec.Number(n, p)
+			part.Position = &v
+			return err
+		}),
+	)
+	if err != nil {
+		return part, err
+	}
+	switch len(kinds) {
+	case 0:
+		return part, dec.Errorf(n, path, "no kind: a part has one of r, c, l or pot, as in %s", partForms)
+	case 1:
+	default:
+		return part, dec.Errorf(n, path, "two kinds (%s): a part has exactly one of r, c, l or pot", strings.Join(kinds, " and "))
+	}
+	for _, k := range []string{"from", "to"} {
+		if !hasKey(n, k) {
+			return part, dec.Errorf(n, path, "missing key %s: a part joins two nodes, as in %s", k, partForms)
+		}
+	}
+	if part.Kind != PartPot {
+		if len(potOnly) > 0 {
+			return part, dec.Errorf(n, join(path, potOnly[0]), "only a pot has %s: this part is %s %s", potOnly[0], article(part.Kind), part.Kind)
+		}
+		return part, nil
+	}
+	if !hasKey(n, "wiper") {
+		return part, dec.Errorf(n, path, "missing key wiper: a pot names its wiper's node (the same as from or to for a pot wired as a variable resistor)")
+	}
+	if haveMid {
+		if part.Taper.Law == Linear {
+			return part, dec.Errorf(n, join(path, "midpoint"), "a linear taper has no midpoint: give taper: audio or reverse-audio, or drop midpoint")
+		}
+		part.Taper.Midpoint = mid
+	}
+	return part, nil
+}
+
+func article(k PartKind) string {
+	if k == PartInductor {
+		return "an"
+	}
+	return "a"
 }
 
 // YAML returns the design in the design-file schema, values in the short
@@ -105,9 +246,16 @@ func (d *Design) YAML() []byte {
 	}
 	b.WriteString("}\n")
 	fmt.Fprintf(&b, "tone:\n  network: %s\n", d.Tone.Network)
-	fmt.Fprintf(&b, "  lowpass:  {r: %s, c: %s}\n", v(d.Tone.Lowpass.R), v(d.Tone.Lowpass.C))
-	fmt.Fprintf(&b, "  highpass: {c: %s, r: %s}\n", v(d.Tone.Highpass.C), v(d.Tone.Highpass.R))
-	fmt.Fprintf(&b, "  pot: %s\n", potYAML(d.Tone.Pot))
+	if d.Tone.Network == NetlistNetwork {
+		b.WriteString("  parts:\n")
+		for _, p := range d.Tone.Parts {
+			fmt.Fprintf(&b, "    %s: %s\n", p.Name, netPartYAML(p))
+		}
+	} else {
+		fmt.Fprintf(&b, "  lowpass:  {r: %s, c: %s}\n", v(d.Tone.Lowpass.R), v(d.Tone.Lowpass.C))
+		fmt.Fprintf(&b, "  highpass: {c: %s, r: %s}\n", v(d.Tone.Highpass.C), v(d.Tone.Highpass.R))
+		fmt.Fprintf(&b, "  pot: %s\n", potYAML(d.Tone.Pot))
+	}
 	if len(d.Filters) == 0 {
 		b.WriteString("filters: []\n")
 	} else {
@@ -125,6 +273,28 @@ func (d *Design) YAML() []byte {
 	}
 	fmt.Fprintf(&b, "load: {r: %s, c: %s}\n", r, v(d.Load.C))
 	return b.Bytes()
+}
+
+// netPartYAML writes one netlist part in its flow form.
+func netPartYAML(p NetPart) string {
+	s := fmt.Sprintf("{%s: %s", p.Kind.key(), eseries.Format(p.Value))
+	if p.Kind == PartPot {
+		s += ", taper: " + p.Taper.String()
+		if p.Taper.Midpoint > 0 {
+			s += ", midpoint: " + trimFloat(p.Taper.Midpoint)
+		}
+	}
+	s += fmt.Sprintf(", from: %s, to: %s", p.From, p.To)
+	if p.Kind == PartPot {
+		s += ", wiper: " + p.Wiper
+		if p.Knob != "" && p.Knob != p.Name {
+			s += ", knob: " + p.Knob
+		}
+		if p.Position != nil {
+			s += ", position: " + trimFloat(*p.Position)
+		}
+	}
+	return s + "}"
 }
 
 func potYAML(p PotPart) string {

@@ -2,6 +2,7 @@ package networks
 
 import (
 	"math"
+	"reflect"
 	"strings"
 	"testing"
 )
@@ -36,7 +37,7 @@ func TestParseDesign(t *testing.T) {
 		Level:   &LevelSetting{Pot: PotPart{Value: 100e3, Taper: Taper{Law: Audio}}, Position: 0.8},
 		Load:    Load{R: 1e6, C: 470e-12},
 	}
-	if d.Name != want.Name || d.Band != want.Band || d.Source != want.Source || d.Tone != want.Tone ||
+	if d.Name != want.Name || d.Band != want.Band || d.Source != want.Source || !reflect.DeepEqual(d.Tone, want.Tone) ||
 		len(d.Filters) != 2 || d.Filters[0] != want.Filters[0] || d.Filters[1] != want.Filters[1] ||
 		*d.Level != *want.Level || d.Load != want.Load {
 		t.Errorf("parsed\n%+v\nwant\n%+v", d, want)

@@ -61,10 +61,10 @@ tone:
 	a, _ := networks.Analyze(d, []float64{0, 0.5, 1})
 	for _, p := range a.Positions {
 		if p.Scoop == nil {
-			fmt.Printf("blend %g: %.1f dB at 1 kHz, no scoop\n", p.Blend, p.Gain1kDB)
+			fmt.Printf("blend %g: %.1f dB at 1 kHz, no scoop\n", p.Knobs["blend"], p.Gain1kDB)
 			continue
 		}
-		fmt.Printf("blend %g: %.1f dB at 1 kHz, scoop %.0f Hz, %.1f dB deep\n", p.Blend, p.Gain1kDB, p.Scoop.Hz, p.Scoop.DepthDB)
+		fmt.Printf("blend %g: %.1f dB at 1 kHz, scoop %.0f Hz, %.1f dB deep\n", p.Knobs["blend"], p.Gain1kDB, p.Scoop.Hz, p.Scoop.DepthDB)
 	}
 	// Output:
 	// blend 0: -10.5 dB at 1 kHz, no scoop

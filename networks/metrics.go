@@ -2,53 +2,74 @@ package networks
 
 import "math"
 
-// This file defines the metrics tonewright reports and designs to. The
-// README's "Metrics" section documents them exactly as computed here.
+// This file defines the figures tonewright reports and designs to, each
+// once. The README's "How the figures are computed" documents them exactly
+// as computed here.
 
-// Response is anything with a gain in dB at a frequency: a Compiled chain or
-// a Solver.
+// Response is anything with a gain in dB at a frequency: a Compiled chain, a
+// Solver, or any compiled evaluator of a network.
 type Response interface {
 	GainDB(f float64) float64
 }
 
-// GridPerDecade is the density of the log grid the metrics search on.
+// GridPerDecade is the density of the log grid the figures search on.
 const GridPerDecade = 240
 
-// minStep is how far, in dB, a grid point must lie below both neighbours to
-// count as a local minimum: far above rounding, far below any audible dip.
+// minStep is how far, in dB, a grid point must lie beyond a neighbour to
+// count as a local extremum: far above rounding, far below any audible
+// step.
 const minStep = 1e-9
 
 // MinProminence is how far, in dB, a local minimum must lie below the lower
-// of its two shoulders to count as a scoop. A shallower dip is a ripple on
-// a shelf that no ear hears, and measuring it against the far shoulder
-// would report a shelf as a deep scoop.
-const MinProminence = 0.1
+// of its two shoulders to count as a scoop, and a local maximum above the
+// higher of its two sides to count as a peak. A smaller dip or bump is a
+// ripple on a shelf that no ear hears, and measuring it against the far
+// shoulder would report a shelf as a deep scoop.
+const MinProminence = 0.5
+
+// CornerDrop is the fall, in dB, that defines a corner: exactly 3 dB.
+const CornerDrop = 3.0
 
 // Scoop is a mid scoop: the interior minimum of the gain at Hz, its depth
-// below the mean of the two shoulders and the balance between them.
+// below the mean of the two shoulders, the balance between them, and its
+// dip below the lower shoulder.
 type Scoop struct {
 	Hz        float64 `json:"hz"`
 	DepthDB   float64 `json:"depth_db"`
+	BalanceDB float64 `json:"balance_db"`
+	NotchDB   float64 `json:"notch_db"`
+}
+
+// Peak is a boost: the interior maximum of the gain at Hz, its height above
+// the mean of the lowest gains on either side, and the balance between
+// them.
+type Peak struct {
+	Hz        float64 `json:"hz"`
+	HeightDB  float64 `json:"height_db"`
 	BalanceDB float64 `json:"balance_db"`
 }
 
 // Meter measures responses over one band. It keeps its grids and buffers, so
 // it does not allocate per measurement; it is not safe for concurrent use.
 type Meter struct {
-	band Band
-	grid []float64 // the band, GridPerDecade per decade
-	wide []float64 // band low to 10 × band high, for the corner
-	g    []float64 // gains on grid
-	gw   []float64 // gains on wide
+	band  Band
+	grid  []float64 // the band, GridPerDecade per decade
+	upper []float64 // band low to 10 × band high, for the corner
+	lower []float64 // band low / 10 to band high, for the low corner
+	g     []float64 // gains on grid
+	gu    []float64 // gains on upper
+	gl    []float64 // gains on lower
 }
 
 // NewMeter returns a Meter for band, which must pass Band.Check.
 func NewMeter(band Band) *Meter {
 	m := &Meter{band: band}
 	m.grid = LogGrid(band.From, band.To, GridPerDecade)
-	m.wide = LogGrid(band.From, 10*band.To, GridPerDecade)
+	m.upper = LogGrid(band.From, 10*band.To, GridPerDecade)
+	m.lower = LogGrid(band.From/10, band.To, GridPerDecade)
 	m.g = make([]float64, len(m.grid))
-	m.gw = make([]float64, len(m.wide))
+	m.gu = make([]float64, len(m.upper))
+	m.gl = make([]float64, len(m.lower))
 	return m
 }
 
@@ -64,37 +85,69 @@ func Gain1k(r Response) float64 { return r.GainDB(1000) }
 // section in log f, and keeps the deepest: the one whose depth_db is the
 // most negative. Shoulders: G_lo is the largest gain on [band low, f_s],
 // G_hi the largest on [f_s, band high] (grid maxima, refined where they are
-// interior); depth_db = G(f_s) − (G_lo + G_hi)/2, balance_db = G_hi − G_lo.
-// A minimum less than MinProminence below the lower shoulder is not a
-// scoop. found is false when there is no scoop.
+// interior); depth_db = G(f_s) − (G_lo + G_hi)/2, balance_db = G_hi − G_lo,
+// notch_db = G(f_s) − min(G_lo, G_hi). A minimum less than MinProminence
+// below the lower shoulder is not a scoop. found is false when there is no
+// scoop.
 func (m *Meter) Scoop(r Response) (s Scoop, found bool) {
-	g := m.fill(r)
-	n := len(g)
+	g := fill(r, m.grid, m.g)
 	best := Scoop{DepthDB: math.Inf(1)}
+	forExtrema(g, 1, func(i, j int) {
+		fs, gs := goldenMin(r, m.grid[i-1], m.grid[j])
+		c := m.shoulders(r, i, fs, gs)
+		if c.NotchDB > -MinProminence {
+			return
+		}
+		if c.DepthDB < best.DepthDB {
+			best = c
+		}
+		found = true
+	})
+	return best, found
+}
+
+// Peak finds the response's peak, the mirror of Scoop: at every interior
+// local maximum f_p of the band's grid (refined by golden section), M_lo
+// and M_hi are the lowest gains on [band low, f_p] and [f_p, band high]
+// (refined where interior); the maximum counts when G(f_p) is at least
+// MinProminence above max(M_lo, M_hi); height_db = G(f_p) − (M_lo + M_hi)/2
+// and balance_db = M_hi − M_lo. The peak reported has the largest height.
+func (m *Meter) Peak(r Response) (p Peak, found bool) {
+	g := fill(r, m.grid, m.g)
+	best := Peak{HeightDB: math.Inf(-1)}
+	forExtrema(g, -1, func(i, j int) {
+		fp, gp := goldenMax(r, m.grid[i-1], m.grid[j])
+		lo := m.sideExtreme(r, 0, i, gp, -1)
+		hi := m.sideExtreme(r, i, len(m.grid), gp, -1)
+		if gp-math.Max(lo, hi) < MinProminence {
+			return
+		}
+		if h := gp - (lo+hi)/2; h > best.HeightDB {
+			best = Peak{Hz: fp, HeightDB: h, BalanceDB: hi - lo}
+		}
+		found = true
+	})
+	return best, found
+}
+
+// forExtrema calls at(i, j) for every interior local minimum (sign 1) or
+// maximum (sign −1) of g: g[i] lies more than minStep beyond g[i−1], equal
+// to it up to g[j−1], and g[j] lies more than minStep back again.
+func forExtrema(g []float64, sign float64, at func(i, j int)) {
+	n := len(g)
 	for i := 1; i < n-1; i++ {
-		if !(g[i] < g[i-1]-minStep) {
+		if !(sign*g[i] < sign*g[i-1]-minStep) {
 			continue
 		}
 		j := i + 1
 		for j < n-1 && g[j] == g[i] {
 			j++
 		}
-		if !(g[j] > g[i]+minStep) {
-			continue
+		if sign*g[j] > sign*g[i]+minStep {
+			at(i, j)
 		}
-		fs, gs := goldenMin(r, m.grid[i-1], m.grid[j])
-		c, lower := m.shoulders(r, i, fs, gs)
-		if lower-gs < MinProminence {
-			i = j - 1
-			continue
-		}
-		if c.DepthDB < best.DepthDB {
-			best = c
-		}
-		found = true
 		i = j - 1
 	}
-	return best, found
 }
 
 // LevelsAt measures the curve at frequency f as if f were the scoop: the
@@ -102,7 +155,7 @@ func (m *Meter) Scoop(r Response) (s Scoop, found bool) {
 // balance_db defined as for Scoop. The search uses it where a candidate has
 // no scoop, so that it always has a slope to follow.
 func (m *Meter) LevelsAt(r Response, f float64) Scoop {
-	m.fill(r)
+	fill(r, m.grid, m.g)
 	return m.levelsAt(r, f)
 }
 
@@ -121,72 +174,108 @@ func (m *Meter) levelsAt(r Response, f float64) Scoop {
 	for i < len(m.grid)-1 && m.grid[i+1] <= f {
 		i++
 	}
-	s, _ := m.shoulders(r, i+1, f, r.GainDB(f))
-	return s
+	return m.shoulders(r, i+1, f, r.GainDB(f))
 }
 
 // shoulders completes a Scoop at fs (gain gs), where grid points below
-// index split lie at or below fs and the rest above it, and returns the
-// lower of the two shoulders too.
-func (m *Meter) shoulders(r Response, split int, fs, gs float64) (Scoop, float64) {
-	lo := m.sideMax(r, 0, split, gs)
-	hi := m.sideMax(r, split, len(m.grid), gs)
-	return Scoop{Hz: fs, DepthDB: gs - (lo+hi)/2, BalanceDB: hi - lo}, math.Min(lo, hi)
+// index split lie at or below fs and the rest above it.
+func (m *Meter) shoulders(r Response, split int, fs, gs float64) Scoop {
+	lo := m.sideExtreme(r, 0, split, gs, 1)
+	hi := m.sideExtreme(r, split, len(m.grid), gs, 1)
+	return Scoop{Hz: fs, DepthDB: gs - (lo+hi)/2, BalanceDB: hi - lo, NotchDB: gs - math.Min(lo, hi)}
 }
 
-// sideMax is the largest gain on grid[from:to] and at the split point,
-// refined by golden section when it falls strictly inside the side.
-func (m *Meter) sideMax(r Response, from, to int, gs float64) float64 {
+// sideExtreme is the largest (sign 1) or smallest (sign −1) gain on
+// grid[from:to] and at the split point (gain gs), refined by golden section
+// when it falls strictly inside the side.
+func (m *Meter) sideExtreme(r Response, from, to int, gs, sign float64) float64 {
 	k, v := -1, gs
 	for i := from; i < to; i++ {
-		if m.g[i] > v {
+		if sign*m.g[i] > sign*v {
 			k, v = i, m.g[i]
 		}
 	}
 	if k > from && k < to-1 {
-		_, v = goldenMax(r, m.grid[k-1], m.grid[k+1])
+		_, v = goldenSearch(r, m.grid[k-1], m.grid[k+1], -sign)
 	}
 	return v
 }
 
-// Corner returns the output low-pass corner of a response (the chain at
-// knob 1): from the frequency of maximum gain, searched from band low to
-// 10 × band high, upward, the first frequency where the gain is 3 dB below
-// that maximum (grid search, then bisection in log f). found is false when
-// the gain does not fall 3 dB by 10 × band high.
+// Corner returns the output low-pass corner of a response. On the grid
+// from band low to 10 × band high the reference is the highest-frequency
+// interior local maximum of G (refined by golden section), or the band-low
+// point when G has none; the corner is the first frequency above the
+// reference where G falls CornerDrop below it and after which G stays more
+// than CornerDrop below it up to 10 × band high (located by bisection in
+// log f). found is false when there is no such frequency.
 func (m *Meter) Corner(r Response) (hz float64, found bool) {
-	g := m.gw
-	for i, f := range m.wide {
-		g[i] = r.GainDB(f)
+	g := fill(r, m.upper, m.gu)
+	k := -1
+	forExtrema(g, -1, func(i, j int) { k = i })
+	fref, gref := m.upper[0], g[0]
+	if k > 0 {
+		fref, gref = goldenMax(r, m.upper[k-1], m.upper[k+1])
+	} else {
+		k = 0
 	}
-	k := 0
-	for i := range g {
-		if g[i] > g[k] {
-			k = i
-		}
+	target := gref - CornerDrop
+	last := len(g) - 1
+	if g[last] >= target {
+		return 0, false
 	}
-	fmax, gmax := m.wide[k], g[k]
-	if k > 0 && k < len(g)-1 {
-		fmax, gmax = goldenMax(r, m.wide[k-1], m.wide[k+1])
+	j := last // the first point of the final run below target
+	for j > k+1 && g[j-1] < target {
+		j--
 	}
-	target := gmax - 3
-	for j := k + 1; j < len(g); j++ {
-		if g[j] < target {
-			lo := m.wide[j-1]
-			if j == k+1 {
-				lo = fmax
-			}
-			return bisectDown(r, lo, m.wide[j], target), true
-		}
+	lo := m.upper[j-1]
+	if j == k+1 {
+		lo = fref
 	}
-	return 0, false
+	return bisectLog(r, lo, m.upper[j], target), true
 }
 
-func (m *Meter) fill(r Response) []float64 {
-	for i, f := range m.grid {
-		m.g[i] = r.GainDB(f)
+// LowCorner returns the low corner, the mirror of Corner: on the grid from
+// band low / 10 to band high the reference is the lowest-frequency interior
+// local maximum of G (the band-high point when G has none); the low corner
+// is the first frequency below the reference where G falls CornerDrop
+// below it and below which G stays more than CornerDrop below it down to
+// band low / 10. found is false when there is none.
+func (m *Meter) LowCorner(r Response) (hz float64, found bool) {
+	g := fill(r, m.lower, m.gl)
+	last := len(g) - 1
+	k := -1
+	forExtrema(g, -1, func(i, j int) {
+		if k < 0 {
+			k = i
+		}
+	})
+	fref, gref := m.lower[last], g[last]
+	if k > 0 {
+		fref, gref = goldenMax(r, m.lower[k-1], m.lower[k+1])
+	} else {
+		k = last
 	}
-	return m.g
+	target := gref - CornerDrop
+	if g[0] >= target {
+		return 0, false
+	}
+	j := 0 // the last point of the first run below target
+	for j < k-1 && g[j+1] < target {
+		j++
+	}
+	hi := m.lower[j+1]
+	if j == k-1 {
+		hi = fref
+	}
+	return bisectLog(r, hi, m.lower[j], target), true
+}
+
+// fill evaluates r on grid into g.
+func fill(r Response, grid, g []float64) []float64 {
+	for i, f := range grid {
+		g[i] = r.GainDB(f)
+	}
+	return g
 }
 
 const golden = 0.6180339887498949
@@ -199,8 +288,7 @@ func goldenMin(r Response, a, b float64) (float64, float64) {
 
 // goldenMax returns the frequency and gain of the maximum of r on [a, b].
 func goldenMax(r Response, a, b float64) (float64, float64) {
-	f, g := goldenSearch(r, a, b, -1)
-	return f, g
+	return goldenSearch(r, a, b, -1)
 }
 
 // goldenSearch minimises sign·G over [a, b] in log f until the bracket is
@@ -226,11 +314,12 @@ func goldenSearch(r Response, a, b, sign float64) (float64, float64) {
 	return math.Pow(10, x), sign * g(x)
 }
 
-// bisectDown finds f in [lo, hi] with G(f) = target, where G(lo) ≥ target >
-// G(hi), by bisection in log f to 1e-12 decade.
-func bisectDown(r Response, lo, hi, target float64) float64 {
-	a, b := math.Log10(lo), math.Log10(hi)
-	for b-a > 1e-12 {
+// bisectLog finds f between from and to with G(f) = target, where G(from)
+// ≥ target > G(to), by bisection in log f to 1e-12 decade. from may lie
+// above or below to.
+func bisectLog(r Response, from, to, target float64) float64 {
+	a, b := math.Log10(from), math.Log10(to)
+	for math.Abs(b-a) > 1e-12 {
 		c := (a + b) / 2
 		if r.GainDB(math.Pow(10, c)) >= target {
 			a = c

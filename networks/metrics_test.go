@@ -72,7 +72,7 @@ func TestAnalyzeRejectsPositions(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(a.Positions) != 5 || a.CornerHz == nil || a.Positions[2].Scoop == nil {
+	if len(a.Positions) != 5 || a.CornerHz == nil || a.Positions[4].Scoop == nil {
 		t.Errorf("analysis %+v", a)
 	}
 }

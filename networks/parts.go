@@ -13,6 +13,7 @@ const (
 	PartResistor PartKind = iota
 	PartCapacitor
 	PartPot
+	PartInductor
 )
 
 func (k PartKind) String() string {
@@ -21,6 +22,8 @@ func (k PartKind) String() string {
 		return "resistor"
 	case PartCapacitor:
 		return "capacitor"
+	case PartInductor:
+		return "inductor"
 	}
 	return "pot"
 }
@@ -38,12 +41,19 @@ type Part struct {
 
 // Parts returns the design's parts in signal order.
 func (d *Design) Parts() []Part {
-	ps := []Part{
-		{"lowpass.r", "blend low-pass leg R", PartResistor, d.Tone.Lowpass.R},
-		{"lowpass.c", "blend low-pass leg C", PartCapacitor, d.Tone.Lowpass.C},
-		{"highpass.c", "blend high-pass leg C", PartCapacitor, d.Tone.Highpass.C},
-		{"highpass.r", "blend high-pass leg R", PartResistor, d.Tone.Highpass.R},
-		{"pot", "blend pot", PartPot, d.Tone.Pot.Value},
+	var ps []Part
+	if d.Tone.Network == BlendNetwork {
+		ps = []Part{
+			{"lowpass.r", "blend low-pass leg R", PartResistor, d.Tone.Lowpass.R},
+			{"lowpass.c", "blend low-pass leg C", PartCapacitor, d.Tone.Lowpass.C},
+			{"highpass.c", "blend high-pass leg C", PartCapacitor, d.Tone.Highpass.C},
+			{"highpass.r", "blend high-pass leg R", PartResistor, d.Tone.Highpass.R},
+			{"pot", "blend pot", PartPot, d.Tone.Pot.Value},
+		}
+	} else {
+		for _, p := range d.Tone.Parts {
+			ps = append(ps, Part{p.Name, netPartRole(p), p.Kind, p.Value})
+		}
 	}
 	for i, f := range d.Filters {
 		ps = append(ps,
@@ -87,6 +97,16 @@ func (d *Design) PartValue(name string) (float64, error) {
 // PartRef returns where the design keeps the named part's value, or nil for
 // a name it has no part by. The search writes candidate values through it.
 func (d *Design) PartRef(name string) *float64 {
+	if d.Tone.Network == NetlistNetwork {
+		for i := range d.Tone.Parts {
+			if d.Tone.Parts[i].Name == name {
+				return &d.Tone.Parts[i].Value
+			}
+		}
+		if name != "level" && !strings.HasPrefix(name, "filter") {
+			return nil
+		}
+	}
 	switch name {
 	case "lowpass.r":
 		return &d.Tone.Lowpass.R
@@ -122,6 +142,13 @@ func (d *Design) PartRef(name string) *float64 {
 func (d *Design) Clone() *Design {
 	c := *d
 	c.Filters = append([]RC(nil), d.Filters...)
+	c.Tone.Parts = append([]NetPart(nil), d.Tone.Parts...)
+	for i, p := range c.Tone.Parts {
+		if p.Position != nil {
+			v := *p.Position
+			c.Tone.Parts[i].Position = &v
+		}
+	}
 	if d.Level != nil {
 		l := *d.Level
 		c.Level = &l

@@ -1,7 +1,6 @@
 package networks
 
 import (
-	"fmt"
 	"math"
 	"slices"
 )
@@ -59,8 +58,9 @@ func deref(v *float64) (float64, bool) {
 
 // SensitivityReport is the result of a sensitivity study.
 type SensitivityReport struct {
-	Blend   float64           `json:"blend"` // the knob position for the gain and the scoop
-	Step    float64           `json:"step"`  // h, in ln(part value)
+	Blend   *float64          `json:"blend,omitempty"` // the blend knob, for a blend design
+	Knobs   Setting           `json:"knobs"`           // the setting for the gain and the scoop
+	Step    float64           `json:"step"`            // h, in ln(part value)
 	Nominal StudyMetrics      `json:"nominal"`
 	Parts   []PartSensitivity `json:"parts"` // in signal order
 
@@ -94,18 +94,19 @@ func (r *SensitivityReport) Ranked(m SensitivityMetric) []PartSensitivity {
 }
 
 // Sensitivities measures, for every part of d, the sensitivity of each
-// metric (the gain at 1 kHz and the scoop with the blend knob at blend, the
-// output corner at knob 1) by central differences with step
+// metric (the gain at 1 kHz and the scoop at the setting at, the output
+// corner at blend knob 1 for a blend design, else at at) by central differences with step
 // SensitivityStep in ln(part value).
-func Sensitivities(d *Design, blend float64) (*SensitivityReport, error) {
+func Sensitivities(d *Design, at Setting) (*SensitivityReport, error) {
 	if err := d.Validate(); err != nil {
 		return nil, err
 	}
-	if !(blend >= 0 && blend <= 1) {
-		return nil, fmt.Errorf("blend knob position %v is outside 0..1", blend)
+	at, err := d.Setting(at)
+	if err != nil {
+		return nil, err
 	}
-	pr := newProbe(d.Band, blend)
-	rep := &SensitivityReport{Blend: blend, Step: SensitivityStep, Nominal: pr.measure(d).metrics(), Ranking: map[string][]string{}}
+	pr := newProbe(d, at)
+	rep := &SensitivityReport{Blend: blendOf(at), Knobs: at, Step: SensitivityStep, Nominal: pr.measure(d).metrics(), Ranking: map[string][]string{}}
 	w := d.Clone()
 	for _, p := range d.Parts() {
 		x := w.PartRef(p.Name)

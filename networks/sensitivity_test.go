@@ -23,7 +23,7 @@ func TestSensitivityRCCorner(t *testing.T) {
 		{0, 100e3, 470e-12},
 	} {
 		d := rcDesign(tc.rs, tc.r, tc.c)
-		rep, err := Sensitivities(d, 1)
+		rep, err := Sensitivities(d, Setting{BlendKnob: 1})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -88,7 +88,7 @@ func TestSensitivityAgreesWithNodalSolver(t *testing.T) {
 	d := studyDesign()
 	d.Load.C = 470e-12
 	const blend = 0.6
-	rep, err := Sensitivities(d, blend)
+	rep, err := Sensitivities(d, Setting{BlendKnob: blend})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -147,7 +147,7 @@ func TestSensitivityAgreesWithNodalSolver(t *testing.T) {
 // the study design has no scoop, so the scoop's sensitivities are missing
 // while the gain's and the corner's are there.
 func TestSensitivityMissingScoop(t *testing.T) {
-	rep, err := Sensitivities(studyDesign(), 0)
+	rep, err := Sensitivities(studyDesign(), Setting{BlendKnob: 0})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -171,12 +171,12 @@ func TestSensitivityMissingScoop(t *testing.T) {
 }
 
 func TestSensitivityErrors(t *testing.T) {
-	if _, err := Sensitivities(studyDesign(), 2); err == nil || !strings.Contains(err.Error(), "blend knob position 2") {
+	if _, err := Sensitivities(studyDesign(), Setting{BlendKnob: 2}); err == nil || !strings.Contains(err.Error(), "knob blend: position 2 is outside 0..1") {
 		t.Errorf("blend 2: %v", err)
 	}
 	d := studyDesign()
 	d.Filters[0].R = -1
-	if _, err := Sensitivities(d, 0.5); err == nil || !strings.Contains(err.Error(), "filters[0].r") {
+	if _, err := Sensitivities(d, Setting{BlendKnob: 0.5}); err == nil || !strings.Contains(err.Error(), "filters[0].r") {
 		t.Errorf("negative R: %v", err)
 	}
 }

@@ -21,8 +21,8 @@ func measurePoints(d *Design, blend float64) int {
 // two-core machine.
 func BenchmarkTolerance10k(b *testing.B) {
 	d := studyDesign()
-	spec := ToleranceSpec{Parts: PartTolerances(d, nil), Trials: 10000, Seed: 1, Blend: DefaultStudyBlend, Workers: 2}
-	per := measurePoints(d, spec.Blend)
+	spec := ToleranceSpec{Parts: PartTolerances(d, nil), Trials: 10000, Seed: 1, At: Setting{BlendKnob: DefaultStudyBlend}, Workers: 2}
+	per := measurePoints(d, spec.At[BlendKnob])
 	b.ReportAllocs()
 	for i := 0; i < b.N; i++ {
 		if _, err := Tolerance(d, spec); err != nil {
@@ -37,7 +37,7 @@ func BenchmarkTolerance10k(b *testing.B) {
 // blend, the gain at 1 kHz and the corner at knob 1) on one core.
 func BenchmarkToleranceTrial(b *testing.B) {
 	d := studyDesign()
-	p := newProbe(d.Band, DefaultStudyBlend)
+	p := newProbe(d, Setting{BlendKnob: DefaultStudyBlend})
 	per := measurePoints(d, DefaultStudyBlend)
 	b.ReportAllocs()
 	for i := 0; i < b.N; i++ {
@@ -53,7 +53,7 @@ func BenchmarkSensitivities(b *testing.B) {
 	per := measurePoints(d, DefaultStudyBlend) * (1 + 2*len(d.Parts()))
 	b.ReportAllocs()
 	for i := 0; i < b.N; i++ {
-		if _, err := Sensitivities(d, DefaultStudyBlend); err != nil {
+		if _, err := Sensitivities(d, Setting{BlendKnob: DefaultStudyBlend}); err != nil {
 			b.Fatal(err)
 		}
 	}

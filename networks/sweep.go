@@ -16,23 +16,43 @@ import (
 const DefaultStudyBlend = 0.5
 
 // StudyMetrics are a design's metrics as the studies report them: the gain
-// at 1 kHz and the scoop at one blend knob position, and the output corner
-// (knob 1). They are the figures Analyze reports, computed the same way.
+// at 1 kHz and the scoop at one knob setting, and the output corner (for a
+// blend design at blend knob 1, else at the same setting). They are the
+// figures Analyze reports, computed the same way.
 type StudyMetrics struct {
 	Gain1kDB float64  `json:"gain_1k_db"`
 	Scoop    *Scoop   `json:"scoop"`     // nil when the curve has no scoop
 	CornerHz *float64 `json:"corner_hz"` // nil when there is no corner
 }
 
-// MetricsOf returns the study metrics of an analysis made at a single blend
-// position (its first).
+// MetricsOf returns the study metrics of an analysis made at a single knob
+// setting (its first).
 func MetricsOf(a *Analysis) StudyMetrics {
 	m := StudyMetrics{CornerHz: a.CornerHz}
 	if len(a.Positions) > 0 {
 		m.Gain1kDB = a.Positions[0].Gain1kDB
 		m.Scoop = a.Positions[0].Scoop
+		if !a.Blend {
+			m.CornerHz = a.Positions[0].CornerHz
+		}
 	}
 	return m
+}
+
+// StudySetting returns the setting a study of d measures at: the design's
+// own (a knob without a position at its centre) with the knobs in over
+// moved.
+func StudySetting(d *Design, over map[string]float64) (Setting, error) {
+	return d.Setting(over)
+}
+
+// blendOf returns the blend knob's position in s, nil for a setting with
+// no blend knob.
+func blendOf(s Setting) *float64 {
+	if b, ok := s[BlendKnob]; ok {
+		return &b
+	}
+	return nil
 }
 
 // Shift is how far a variant's metrics lie from the design's own: the
@@ -90,9 +110,10 @@ func (r SweepRow) MarshalJSON() ([]byte, error) {
 // SweepResult is a design measured over a grid of source impedances and
 // load resistances.
 type SweepResult struct {
-	Blend   float64    `json:"blend"`
-	Nominal *Analysis  `json:"nominal"` // the design as it is, at Blend
-	Rows    []SweepRow `json:"rows"`    // every source (outer) with every load (inner)
+	Blend   *float64   `json:"blend,omitempty"` // the blend knob, for a blend design
+	Knobs   Setting    `json:"knobs"`           // the setting measured
+	Nominal *Analysis  `json:"nominal"`         // the design as it is, at Knobs
+	Rows    []SweepRow `json:"rows"`            // every source (outer) with every load (inner)
 }
 
 // Variant returns a copy of d driven by a source of impedance sourceOhm and
@@ -106,19 +127,20 @@ func Variant(d *Design, sourceOhm, loadOhm float64) *Design {
 }
 
 // Sweep measures d with every source impedance in sources and every load
-// resistance in loads, the blend knob at blend. A nil or empty list stands
+// resistance in loads, the knobs at the setting at. A nil or empty list stands
 // for the design's own value, but at least one list must have values.
 // Source impedances must be zero or positive and finite, load resistances
 // positive (+Inf is an open load).
-func Sweep(d *Design, sources, loads []float64, blend float64) (*SweepResult, error) {
+func Sweep(d *Design, sources, loads []float64, at Setting) (*SweepResult, error) {
 	if err := d.Validate(); err != nil {
 		return nil, err
 	}
 	if len(sources) == 0 && len(loads) == 0 {
 		return nil, errors.New("nothing to sweep: give source impedances, load resistances or both")
 	}
-	if !(blend >= 0 && blend <= 1) {
-		return nil, fmt.Errorf("blend knob position %v is outside 0..1", blend)
+	at, err := d.Setting(at)
+	if err != nil {
+		return nil, err
 	}
 	for _, s := range sources {
 		if !nonNegative(s) {
@@ -136,16 +158,16 @@ func Sweep(d *Design, sources, loads []float64, blend float64) (*SweepResult, er
 	if len(loads) == 0 {
 		loads = []float64{d.Load.R}
 	}
-	pos := []float64{blend}
-	nom, err := Analyze(d, pos)
+	pos := []Setting{at}
+	nom, err := AnalyzeSettings(d, pos)
 	if err != nil {
 		return nil, err
 	}
-	res := &SweepResult{Blend: blend, Nominal: nom}
+	res := &SweepResult{Blend: blendOf(at), Knobs: at, Nominal: nom}
 	nm := MetricsOf(nom)
 	for _, s := range sources {
 		for _, l := range loads {
-			a, err := Analyze(Variant(d, s, l), pos)
+			a, err := AnalyzeSettings(Variant(d, s, l), pos)
 			if err != nil {
 				return nil, fmt.Errorf("source %v Ω, load %v Ω: %w", s, l, err)
 			}
@@ -155,39 +177,68 @@ func Sweep(d *Design, sources, loads []float64, blend float64) (*SweepResult, er
 	return res, nil
 }
 
-// probe measures designs at one blend knob position the way Analyze does
-// (the same chains, compiled the same way, through the same Meter), but
-// reusing its storage: after the first call it allocates nothing. It is
-// what the tolerance trials and the sensitivity steps call; it is not safe
-// for concurrent use.
+// probe measures designs at one knob setting the way Analyze does (the
+// same evaluators, through the same Meter), but for blend designs reusing
+// its storage: after the first call it allocates nothing. It is what the
+// tolerance trials and the sensitivity steps call; it is not safe for
+// concurrent use.
 type probe struct {
-	m      *Meter
-	blend  float64
-	c      Chain
-	lv     Level
-	k0, k1 Compiled // at blend, at knob 1
+	m          *Meter
+	at, corner Setting // where the gain and scoop, and the corner, are measured
+	c          Chain
+	lv         Level
+	k0, k1     Compiled // blend designs: at at, at corner
+	e0, e1     Response // the evaluators of the last measurement
 }
 
-func newProbe(band Band, blend float64) *probe {
-	return &probe{m: NewMeter(band), blend: blend}
+// newProbe returns a probe of designs shaped like d at the setting at: the
+// corner of a blend design is measured at blend knob 1, of any other at at.
+func newProbe(d *Design, at Setting) *probe {
+	at = d.complete(at)
+	p := &probe{m: NewMeter(d.Band), at: at, corner: at}
+	if d.Tone.Network == BlendNetwork {
+		p.corner = at.With(BlendKnob, 1)
+	}
+	return p
 }
 
-// chain sets p.c to d.Chain(pos), the level pot held in p.lv so that
-// nothing is allocated. It must build what Design.Chain builds;
+// chain sets p.c to d.ChainAt(s), the level pot held in p.lv so that
+// nothing is allocated. It must build what Design.ChainAt builds;
 // TestProbeChainMatchesDesignChain holds it to that.
-func (p *probe) chain(d *Design, pos float64) *Chain {
+func (p *probe) chain(d *Design, s Setting) *Chain {
 	p.c = Chain{
 		Source:  d.Source,
-		Blend:   Blend{Lowpass: d.Tone.Lowpass, Highpass: d.Tone.Highpass, Pot: Pot{Value: d.Tone.Pot.Value, Taper: d.Tone.Pot.Taper, Position: pos}},
+		Blend:   Blend{Lowpass: d.Tone.Lowpass, Highpass: d.Tone.Highpass, Pot: Pot{Value: d.Tone.Pot.Value, Taper: d.Tone.Pot.Taper, Position: s[BlendKnob]}},
 		Filters: d.Filters,
 		Load:    d.Load,
 	}
 	if d.Level != nil {
-		p.lv = Level{Pot: Pot{Value: d.Level.Pot.Value, Taper: d.Level.Pot.Taper, Position: d.Level.Position}}
+		p.lv = Level{Pot: Pot{Value: d.Level.Pot.Value, Taper: d.Level.Pot.Taper, Position: s[LevelKnob]}}
 		p.c.Level = &p.lv
 	}
 	return &p.c
 }
+
+// compile sets p.e0 and p.e1 to d's evaluators at the probe's settings.
+func (p *probe) compile(d *Design) {
+	if d.Tone.Network == BlendNetwork {
+		p.chain(d, p.at).CompileInto(&p.k0)
+		p.chain(d, p.corner).CompileInto(&p.k1)
+		p.e0, p.e1 = &p.k0, &p.k1
+		return
+	}
+	var e Response = nanResponse{}
+	if c, err := d.Compile(p.at); err == nil {
+		e = c
+	}
+	p.e0, p.e1 = e, e
+}
+
+// nanResponse stands for a design that cannot be solved: every figure of
+// it is missing.
+type nanResponse struct{}
+
+func (nanResponse) GainDB(float64) float64 { return math.NaN() }
 
 // sample is one measurement by a probe; a metric that is missing has its
 // flag false and its fields zero.
@@ -199,18 +250,17 @@ type sample struct {
 	hasCorner bool
 }
 
-// measure measures d: the gain at 1 kHz and the scoop at the probe's blend
-// position, the corner at knob 1.
+// measure measures d: the gain at 1 kHz and the scoop at the probe's
+// setting, the corner at its corner setting.
 func (p *probe) measure(d *Design) sample {
 	var s sample
-	p.chain(d, p.blend).CompileInto(&p.k0)
-	s.gain = Gain1k(&p.k0)
-	s.scoop, s.hasScoop = p.m.Scoop(&p.k0)
+	p.compile(d)
+	s.gain = Gain1k(p.e0)
+	s.scoop, s.hasScoop = p.m.Scoop(p.e0)
 	if !s.hasScoop {
 		s.scoop = Scoop{}
 	}
-	p.chain(d, 1).CompileInto(&p.k1)
-	s.corner, s.hasCorner = p.m.Corner(&p.k1)
+	s.corner, s.hasCorner = p.m.Corner(p.e1)
 	return s
 }
 

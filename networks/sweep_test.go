@@ -63,7 +63,7 @@ func TestSweepRCCorner(t *testing.T) {
 	const r, c = 10e3, 2.2e-9
 	d := rcDesign(0, r, c)
 	sources := []float64{0, 100, 1e3, 4.7e3, 22e3}
-	res, err := Sweep(d, sources, nil, 1)
+	res, err := Sweep(d, sources, nil, Setting{BlendKnob: 1})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -94,7 +94,7 @@ func TestSweepGrid(t *testing.T) {
 	d := studyDesign()
 	sources := []float64{100, d.Source.Impedance, 22e3}
 	loads := []float64{100e3, d.Load.R, math.Inf(1)}
-	res, err := Sweep(d, sources, loads, 0.5)
+	res, err := Sweep(d, sources, loads, Setting{BlendKnob: 0.5})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -144,7 +144,7 @@ func TestVariantKeepsCapacitors(t *testing.T) {
 }
 
 func TestSweepJSON(t *testing.T) {
-	res, err := Sweep(studyDesign(), []float64{1e3}, []float64{math.Inf(1)}, 0.5)
+	res, err := Sweep(studyDesign(), []float64{1e3}, []float64{math.Inf(1)}, Setting{BlendKnob: 0.5})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -153,7 +153,7 @@ func TestSweepJSON(t *testing.T) {
 		t.Fatal(err)
 	}
 	var back struct {
-		Blend float64 `json:"blend"`
+		Blend *float64 `json:"blend"`
 		Rows  []struct {
 			SourceOhm float64         `json:"source_ohm"`
 			LoadOhm   *float64        `json:"load_ohm"`
@@ -164,7 +164,7 @@ func TestSweepJSON(t *testing.T) {
 	if err := json.Unmarshal(b, &back); err != nil {
 		t.Fatal(err)
 	}
-	if back.Blend != 0.5 || len(back.Rows) != 1 || back.Rows[0].SourceOhm != 1e3 || back.Rows[0].LoadOhm != nil {
+	if back.Blend == nil || *back.Blend != 0.5 || len(back.Rows) != 1 || back.Rows[0].SourceOhm != 1e3 || back.Rows[0].LoadOhm != nil {
 		t.Errorf("JSON %s", b)
 	}
 	am, _ := json.Marshal(res.Rows[0].Metrics)
@@ -187,9 +187,9 @@ func TestSweepErrors(t *testing.T) {
 		{"infinite source", []float64{math.Inf(1)}, nil, 0.5, "source impedance +Inf"},
 		{"zero load", nil, []float64{0}, 0.5, "load resistance 0"},
 		{"NaN load", nil, []float64{math.NaN()}, 0.5, "load resistance NaN"},
-		{"blend", []float64{1e3}, nil, 1.5, "blend knob position 1.5"},
+		{"blend", []float64{1e3}, nil, 1.5, "knob blend: position 1.5 is outside 0..1"},
 	} {
-		_, err := Sweep(d, tc.sources, tc.loads, tc.blend)
+		_, err := Sweep(d, tc.sources, tc.loads, Setting{BlendKnob: tc.blend})
 		if err == nil || !strings.Contains(err.Error(), tc.want) {
 			t.Errorf("%s: error %v, want one containing %q", tc.name, err, tc.want)
 		}
@@ -216,9 +216,9 @@ func TestProbeMatchesAnalyze(t *testing.T) {
 		c := randomChain(rng)
 		d := designOf(c)
 		blend := c.Blend.Pot.Position
-		pr := newProbe(d.Band, blend)
+		pr := newProbe(d, Setting{BlendKnob: blend})
 		for _, pos := range []float64{blend, 1} {
-			got, want := *pr.chain(d, pos), d.Chain(pos)
+			got, want := *pr.chain(d, pr.at.With(BlendKnob, pos)), d.Chain(pos)
 			if (got.Level == nil) != (want.Level == nil) || (got.Level != nil && *got.Level != *want.Level) {
 				t.Fatalf("trial %d: level %+v, Design.Chain %+v", trial, got.Level, want.Level)
 			}
@@ -240,7 +240,7 @@ func TestProbeMatchesAnalyze(t *testing.T) {
 // After its first measurement a probe allocates nothing.
 func TestProbeAllocs(t *testing.T) {
 	d := studyDesign()
-	pr := newProbe(d.Band, 0.5)
+	pr := newProbe(d, Setting{BlendKnob: 0.5})
 	pr.measure(d)
 	if n := testing.AllocsPerRun(20, func() { pr.measure(d) }); n != 0 {
 		t.Errorf("%v allocations per measurement, want 0", n)

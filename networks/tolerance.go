@@ -136,11 +136,11 @@ type ToleranceSpec struct {
 	Dist    Distribution
 	Trials  int
 	Seed    uint64
-	Blend   float64 // the knob position for the gain and the scoop
+	At      Setting // the knob setting for the gain and the scoop (knobs it leaves out at their positions)
 	Workers int     // goroutines; 0 means runtime.GOMAXPROCS(0)
 
 	// CurveHz, if set, asks for the percentiles of the gain at these
-	// frequencies, with the blend at Blend (a band around the curve).
+	// frequencies, at the setting At (a band around the curve).
 	CurveHz []float64
 
 	// Progress, if set, is called from the workers, concurrently, with the
@@ -171,7 +171,8 @@ type ToleranceReport struct {
 	Trials  int             `json:"trials"`
 	Seed    uint64          `json:"seed"`
 	Dist    Distribution    `json:"dist"`
-	Blend   float64         `json:"blend"`
+	Blend   *float64        `json:"blend,omitempty"` // the blend knob, for a blend design
+	Knobs   Setting         `json:"knobs"`
 	Parts   []PartTolerance `json:"parts"`
 	Nominal StudyMetrics    `json:"nominal"`
 
@@ -202,8 +203,9 @@ func Tolerance(d *Design, spec ToleranceSpec) (*ToleranceReport, error) {
 	if spec.Trials < 1 || spec.Trials > MaxTrials {
 		return nil, fmt.Errorf("%d trials: give a whole number from 1 to %d", spec.Trials, MaxTrials)
 	}
-	if !(spec.Blend >= 0 && spec.Blend <= 1) {
-		return nil, fmt.Errorf("blend knob position %v is outside 0..1", spec.Blend)
+	at, err := d.Setting(spec.At)
+	if err != nil {
+		return nil, err
 	}
 	if spec.Dist != Uniform && spec.Dist != Normal {
 		return nil, fmt.Errorf("unknown distribution %d", spec.Dist)
@@ -241,7 +243,7 @@ func Tolerance(d *Design, spec ToleranceSpec) (*ToleranceReport, error) {
 		for j, p := range spec.Parts {
 			ptrs[j] = w.PartRef(p.Name)
 		}
-		pr := newProbe(w.Band, spec.Blend)
+		pr := newProbe(w, at)
 		var pcg rand.PCG
 		rng := rand.New(&pcg)
 		return func(i int) {
@@ -252,15 +254,15 @@ func Tolerance(d *Design, spec ToleranceSpec) (*ToleranceReport, error) {
 			if nf > 0 {
 				row := curve[i*nf : (i+1)*nf]
 				for q, f := range spec.CurveHz {
-					row[q] = pr.k0.GainDB(f)
+					row[q] = pr.e0.GainDB(f)
 				}
 			}
 		}
 	}
 	runTrials(n, spec.Workers, spec.Progress, newTrial)
 
-	rep := &ToleranceReport{Trials: n, Seed: spec.Seed, Dist: spec.Dist, Blend: spec.Blend, Parts: spec.Parts}
-	pr := newProbe(d.Band, spec.Blend)
+	rep := &ToleranceReport{Trials: n, Seed: spec.Seed, Dist: spec.Dist, Blend: blendOf(at), Knobs: at, Parts: spec.Parts}
+	pr := newProbe(d, at)
 	rep.Nominal = pr.measure(d).metrics()
 	vals := make([]float64, 0, n)
 	collect := func(get func(s *sample) (float64, bool)) *Spread {

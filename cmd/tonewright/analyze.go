@@ -18,26 +18,27 @@ import (
 func init() { register(newAnalyzeCmd) }
 
 func newAnalyzeCmd(a *app) *cobra.Command {
-	var positions, csvPath string
+	var csvPath string
 	var asJSON bool
 	var points int
+	kc := knobChoice{flag: "positions"}
 	c := &cobra.Command{
 		Use:   "analyze DESIGN.yaml",
-		Short: "Measure a design: gain, scoop, corner and impedances at several knob positions",
-		Long: `analyze solves the design exactly at each blend knob position and prints,
-per position, the gain at 1 kHz and the scoop (frequency, depth, balance);
-then the output corner at knob 1 and the input and output impedances at
-1 kHz with the blend at its centre. The README defines every figure.`,
+		Short: "Measure a design: gain, scoop, peak, corners and impedances at several knob settings",
+		Long: `analyze solves the design exactly at each knob setting and prints, per
+setting, the gain at 1 kHz, the scoop (frequency, depth, balance), the peak,
+and the output corner and low corner; then the input and output impedances
+at 1 kHz with the knobs as designed (a knob without a position at its
+centre). With no --knob the design's swept knob (the blend knob, or the
+first pot without a position) turns through --positions. The README
+defines every figure.`,
 		Example: `  tonewright analyze board.yaml
   tonewright analyze board.yaml --positions 0,0.5,1 --json
+  tonewright analyze stack.yaml --knob treble=0,0.5,1 --knob bass=0.5
   tonewright analyze board.yaml --csv curves.csv`,
 		Args:              exactArgs(1, "DESIGN.yaml"),
 		ValidArgsFunction: yamlFiles,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			ps, err := parsePositions("positions", positions)
-			if err != nil {
-				return err
-			}
 			if points < 1 || points > 100000 {
 				return usageErrorf("--points %d: use a whole number from 1 to 100000", points)
 			}
@@ -45,12 +46,20 @@ then the output corner at knob 1 and the input and output impedances at
 			if err != nil {
 				return err
 			}
-			an, err := networks.Analyze(d, ps)
+			ss, err := kc.settings(cmd, d)
+			if err != nil {
+				return err
+			}
+			an, err := networks.AnalyzeSettings(d, ss)
 			if err != nil {
 				return badInput(fmt.Errorf("%s: %w", args[0], err))
 			}
 			if csvPath != "" {
-				if err := writeFile(csvPath, curvesCSV(d, ps, points), args[0]); err != nil {
+				data, err := curvesCSV(d, ss, points)
+				if err != nil {
+					return badInput(fmt.Errorf("%s: %w", args[0], err))
+				}
+				if err := writeFile(csvPath, data, args[0]); err != nil {
 					return err
 				}
 			}
@@ -64,7 +73,8 @@ then the output corner at knob 1 and the input and output impedances at
 			return nil
 		},
 	}
-	c.Flags().StringVar(&positions, "positions", "0,0.25,0.5,0.75,1", "blend knob positions, 0 (low-pass end) to 1 (high-pass end)")
+	c.Flags().StringVar(&kc.positions, "positions", "0,0.25,0.5,0.75,1", "positions of the swept knob (the blend knob: 0 low-pass end, 1 high-pass end)")
+	addKnobFlag(c, &kc, true)
 	c.Flags().BoolVar(&asJSON, "json", false, "print the analysis as JSON")
 	c.Flags().StringVar(&csvPath, "csv", "", "write the curves (frequency, then magnitude dB and phase ° per position) to `FILE`")
 	c.Flags().IntVar(&points, "points", 100, "points per decade in the --csv file")
@@ -132,46 +142,81 @@ func designTitle(d *networks.Design) string {
 // writeAnalysis prints the analysis table.
 func writeAnalysis(w io.Writer, d *networks.Design, an *networks.Analysis) {
 	fmt.Fprintf(w, "%s: %s, band %s–%s\n\n", designTitle(d), describeDesign(d), hz(d.Band.From), hz(d.Band.To))
+	ss := make([]networks.Setting, len(an.Positions))
+	for i, p := range an.Positions {
+		ss[i] = p.Knobs
+	}
+	varied := d.Varied(ss)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, "blend\tgain at 1 kHz\tscoop at\tdepth\tbalance\t")
-	for _, p := range an.Positions {
-		if p.Scoop == nil {
-			fmt.Fprintf(tw, "%s\t%s\tno scoop\t\t\t\n", posLabel(p.Blend), db(p.Gain1kDB))
-			continue
+	head := append(append([]string(nil), varied...), "gain at 1 kHz", "scoop at", "depth", "balance", "peak at", "height", "corner", "low corner")
+	fmt.Fprintln(tw, strings.Join(head, "\t")+"\t")
+	opt := func(v *float64) string {
+		if v == nil {
+			return "–"
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t\n", posLabel(p.Blend), db(p.Gain1kDB), hz(p.Scoop.Hz), db(p.Scoop.DepthDB), db(p.Scoop.BalanceDB))
+		return hz(*v)
+	}
+	for _, p := range an.Positions {
+		var row []string
+		for _, k := range varied {
+			row = append(row, posLabel(p.Knobs[k]))
+		}
+		row = append(row, db(p.Gain1kDB))
+		if p.Scoop == nil {
+			row = append(row, "no scoop", "", "")
+		} else {
+			row = append(row, hz(p.Scoop.Hz), db(p.Scoop.DepthDB), db(p.Scoop.BalanceDB))
+		}
+		if p.Peak == nil {
+			row = append(row, "no peak", "")
+		} else {
+			row = append(row, hz(p.Peak.Hz), db(p.Peak.HeightDB))
+		}
+		row = append(row, opt(p.CornerHz), opt(p.LowCornerHz))
+		fmt.Fprintln(tw, strings.Join(row, "\t")+"\t")
 	}
 	tw.Flush()
 	fmt.Fprintln(w)
-	corner := "none below " + hz(10*d.Band.To)
-	if an.CornerHz != nil {
-		corner = hz(*an.CornerHz)
+	at := "knobs as designed"
+	if an.Blend {
+		at = "blend " + posLabel(an.ImpedanceBlend)
+		corner := "none below " + hz(10*d.Band.To)
+		if an.CornerHz != nil {
+			corner = hz(*an.CornerHz)
+		}
+		fmt.Fprintf(w, "output corner (knob 1, −3 dB):       %s\n", corner)
+	} else if l := an.ImpedanceKnobs.Label(d.KnobNames()); l != "" {
+		at = l
 	}
-	fmt.Fprintf(w, "output corner (knob 1, −3 dB):       %s\n", corner)
-	fmt.Fprintf(w, "input impedance (1 kHz, blend %s):  %s\n", posLabel(an.ImpedanceBlend), ohm(an.InputImpedanceOhm))
-	fmt.Fprintf(w, "output impedance (1 kHz, blend %s): %s\n", posLabel(an.ImpedanceBlend), ohm(an.OutputImpedanceOhm))
+	fmt.Fprintf(w, "input impedance (1 kHz, %s):  %s\n", at, ohm(an.InputImpedanceOhm))
+	fmt.Fprintf(w, "output impedance (1 kHz, %s): %s\n", at, ohm(an.OutputImpedanceOhm))
 }
 
-// curvesCSV tabulates magnitude and phase at each position over the band.
-func curvesCSV(d *networks.Design, ps []float64, perDecade int) []byte {
+// curvesCSV tabulates magnitude and phase at each setting over the band.
+func curvesCSV(d *networks.Design, ss []networks.Setting, perDecade int) ([]byte, error) {
 	var b bytes.Buffer
 	b.WriteString("hz")
-	for _, p := range ps {
-		fmt.Fprintf(&b, ",db_at_%s,deg_at_%s", posLabel(p), posLabel(p))
+	varied := d.Varied(ss)
+	for _, s := range ss {
+		l := csvSetting(s, varied)
+		fmt.Fprintf(&b, ",db_at_%s,deg_at_%s", l, l)
 	}
 	b.WriteString("\n")
-	ks := make([]*networks.Compiled, len(ps))
-	for i, p := range ps {
-		c := d.Chain(p)
-		ks[i] = c.Compile()
+	es := make([]networks.Evaluator, len(ss))
+	for i, s := range ss {
+		e, err := d.Compile(s)
+		if err != nil {
+			return nil, err
+		}
+		es[i] = e
 	}
 	for _, f := range networks.LogGrid(d.Band.From, d.Band.To, perDecade) {
 		fmt.Fprintf(&b, "%.6g", f)
-		for _, k := range ks {
-			h := k.Transfer(f)
-			fmt.Fprintf(&b, ",%.4f,%.3f", 20*math.Log10(cmplx.Abs(h)), cmplx.Phase(h)*180/math.Pi)
+		for _, e := range es {
+			h := e.Transfer(f)
+			fmt.Fprintf(&b, ",%.4f,%.3f", e.GainDB(f), cmplx.Phase(h)*180/math.Pi)
 		}
 		b.WriteString("\n")
 	}
-	return b.Bytes()
+	return b.Bytes(), nil
 }

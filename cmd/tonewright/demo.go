@@ -89,13 +89,13 @@ func runDemo(a *app, dir string) error {
 	if err := printJSON(&js, an); err != nil {
 		return err
 	}
-	sw, err := networks.Sweep(d, demoSources, nil, networks.DefaultStudyBlend)
+	sw, err := networks.Sweep(d, demoSources, nil, networks.Setting{networks.BlendKnob: networks.DefaultStudyBlend})
 	if err != nil {
 		return err
 	}
 	writeSweep(&sweep, d, sw)
 	tr, err := networks.Tolerance(d, networks.ToleranceSpec{
-		Parts: networks.PartTolerances(d, nil), Trials: 10000, Seed: 1, Blend: networks.DefaultStudyBlend,
+		Parts: networks.PartTolerances(d, nil), Trials: 10000, Seed: 1, At: networks.Setting{networks.BlendKnob: networks.DefaultStudyBlend},
 		CurveHz: networks.LogGrid(d.Band.From, d.Band.To, 40),
 	})
 	if err != nil {
@@ -122,7 +122,7 @@ func runDemo(a *app, dir string) error {
 	if err := plotSynth(res, path("curves.png")); err != nil {
 		return err
 	}
-	phase := &bode{Title: designTitle(d), Caption: describeDesign(d), Range: d.Band, Curves: designCurves(d, networks.DefaultPositions, true), Phase: true}
+	phase := &bode{Title: designTitle(d), Caption: describeDesign(d), Range: d.Band, Curves: designCurves(d, atSwept(d, networks.DefaultPositions...), true), Phase: true}
 	if err := phase.render(path("curves-phase.svg")); err != nil {
 		return err
 	}

@@ -11,28 +11,30 @@ import (
 func init() { register(newPlotCmd) }
 
 func newPlotCmd(a *app) *cobra.Command {
-	var positions, out string
+	var out string
 	var phase bool
+	kc := knobChoice{flag: "positions"}
 	c := &cobra.Command{
 		Use:   "plot DESIGN.yaml -o FILE.png|FILE.svg",
-		Short: "Draw the design's Bode plot at several blend knob positions",
+		Short: "Draw the design's Bode plot at several knob settings",
 		Long: `plot draws the magnitude (dB) against log frequency over the design's band,
-one labelled curve per blend knob position with its scoop marked by a ring,
-and with --phase a phase panel below. The file type follows the extension:
-.png or .svg.`,
+one labelled curve per knob setting (by default the swept knob at
+--positions) with its scoop marked by a ring, and with --phase a phase
+panel below. The file type follows the extension: .png or .svg.`,
 		Example: `  tonewright plot board.yaml -o board.png
-  tonewright plot board.yaml -o board.svg --positions 0,0.5,1 --phase`,
+  tonewright plot board.yaml -o board.svg --positions 0,0.5,1 --phase
+  tonewright plot stack.yaml -o stack.png --knob treble=0,1 --knob bass=0,0.5,1`,
 		Args:              exactArgs(1, "DESIGN.yaml"),
 		ValidArgsFunction: yamlFiles,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if out == "" {
 				return usageErrorf("plot needs an output file: -o FILE.png or -o FILE.svg")
 			}
-			ps, err := parsePositions("positions", positions)
+			d, err := loadDesign(args[0])
 			if err != nil {
 				return err
 			}
-			d, err := loadDesign(args[0])
+			ss, err := kc.settings(cmd, d)
 			if err != nil {
 				return err
 			}
@@ -40,7 +42,7 @@ and with --phase a phase panel below. The file type follows the extension:
 				Title:   designTitle(d),
 				Caption: describeDesign(d),
 				Range:   d.Band,
-				Curves:  designCurves(d, ps, phase),
+				Curves:  designCurves(d, ss, phase),
 				Phase:   phase,
 			}
 			if err := b.render(out, args[0]); err != nil {
@@ -51,7 +53,8 @@ and with --phase a phase panel below. The file type follows the extension:
 		},
 	}
 	c.Flags().StringVarP(&out, "output", "o", "", "the plot `FILE` (.png or .svg)")
-	c.Flags().StringVar(&positions, "positions", "0,0.25,0.5,0.75,1", "blend knob positions, 0 (low-pass end) to 1 (high-pass end)")
+	c.Flags().StringVar(&kc.positions, "positions", "0,0.25,0.5,0.75,1", "positions of the swept knob (the blend knob: 0 low-pass end, 1 high-pass end)")
+	addKnobFlag(c, &kc, true)
 	c.Flags().BoolVar(&phase, "phase", false, "add a phase panel")
 	return c
 }

@@ -313,24 +313,26 @@ func addTarget(p *plot.Plot, t target) error {
 	return nil
 }
 
-// designCurves computes the design's curves at the knob positions, each
-// with its scoop marked.
-func designCurves(d *networks.Design, ps []float64, withPhase bool) []curve {
+// designCurves computes the design's curves at the knob settings, each
+// labelled by the knobs that vary and with its scoop marked.
+func designCurves(d *networks.Design, ss []networks.Setting, withPhase bool) []curve {
 	m := networks.NewMeter(d.Band)
 	freqs := networks.LogGrid(d.Band.From, d.Band.To, 120)
+	varied := d.Varied(ss)
 	var cs []curve
-	for _, p := range ps {
-		ch := d.Chain(p)
-		k := ch.Compile()
-		c := curve{Label: "blend " + posLabel(p), Hz: freqs, DB: make([]float64, len(freqs))}
+	for _, s := range ss {
+		k, err := d.Compile(s)
+		if err != nil {
+			continue // a valid design always compiles; nothing to draw otherwise
+		}
+		c := curve{Label: settingLabel(s, varied), Hz: freqs, DB: make([]float64, len(freqs))}
 		if withPhase {
 			c.Deg = make([]float64, len(freqs))
 		}
 		for i, f := range freqs {
-			h := k.Transfer(f)
-			c.DB[i] = 20 * math.Log10(abs(h))
+			c.DB[i] = k.GainDB(f)
 			if withPhase {
-				c.Deg[i] = phaseDeg(h)
+				c.Deg[i] = phaseDeg(k.Transfer(f))
 			}
 		}
 		if withPhase {
@@ -342,6 +344,17 @@ func designCurves(d *networks.Design, ps []float64, withPhase bool) []curve {
 		cs = append(cs, c)
 	}
 	return cs
+}
+
+// atSwept returns the design's settings with its swept knob (the blend
+// knob of a blend design) at each of ps.
+func atSwept(d *networks.Design, ps ...float64) []networks.Setting {
+	var lists []networks.KnobList
+	if k := d.SweptKnob(); k != "" {
+		lists = []networks.KnobList{{Name: k, Positions: ps}}
+	}
+	ss, _ := d.Settings(lists)
+	return ss
 }
 
 // unwrap removes the 360° jumps from a phase curve.

@@ -15,6 +15,7 @@ func init() { register(newSensitivityCmd) }
 
 func newSensitivityCmd(a *app) *cobra.Command {
 	var blend float64
+	kc := knobChoice{flag: "blend"}
 	var asJSON bool
 	c := &cobra.Command{
 		Use:   "sensitivity DESIGN.yaml",
@@ -41,7 +42,12 @@ most first, so the part to change for each goal reads from the top.`,
 			if err != nil {
 				return err
 			}
-			rep, err := networks.Sensitivities(d, blend)
+			kc.positions = posLabel(blend)
+			at, err := kc.single(cmd, d)
+			if err != nil {
+				return err
+			}
+			rep, err := networks.Sensitivities(d, at)
 			if err != nil {
 				return badInput(fmt.Errorf("%s: %w", args[0], err))
 			}
@@ -52,7 +58,8 @@ most first, so the part to change for each goal reads from the top.`,
 			return nil
 		},
 	}
-	c.Flags().Float64Var(&blend, "blend", networks.DefaultStudyBlend, "blend knob position for the gain and the scoop, 0 (low-pass end) to 1 (high-pass end)")
+	c.Flags().Float64Var(&blend, "blend", networks.DefaultStudyBlend, "blend knob position for the gain and the scoop, 0 (low-pass end) to 1 (high-pass end); for another design, its swept knob")
+	addKnobFlag(c, &kc, false)
 	c.Flags().BoolVar(&asJSON, "json", false, "print the sensitivities as JSON")
 	return c
 }
@@ -60,11 +67,11 @@ most first, so the part to change for each goal reads from the top.`,
 // writeSensitivity prints one ranking per metric.
 func writeSensitivity(w io.Writer, d *networks.Design, rep *networks.SensitivityReport) {
 	fmt.Fprintf(w, "%s: %s\n", designTitle(d), describeDesign(d))
-	fmt.Fprintf(w, "design: %s (blend %s)\n", metricsLine(rep.Nominal, d), posLabel(rep.Blend))
+	fmt.Fprintf(w, "design: %s (%s)\n", metricsLine(rep.Nominal, d), studyLabel(d, rep.Knobs))
 	fmt.Fprintln(w, "Change per 1 % more of the part: frequencies in % per %, levels in dB per %.")
 	n := rep.Nominal
 	for _, m := range networks.SensitivityMetrics {
-		title := m.Title + " (blend " + posLabel(rep.Blend) + ")"
+		title := m.Title + " (" + studyLabel(d, rep.Knobs) + ")"
 		if m.Key == "corner_pct_per_pct" {
 			title = m.Title + " (knob 1)"
 		}
@@ -75,7 +82,7 @@ func writeSensitivity(w io.Writer, d *networks.Design, rep *networks.Sensitivity
 			case m.Key == "corner_pct_per_pct" && n.CornerHz == nil:
 				fmt.Fprintf(w, "  no corner below %s\n", hz(10*d.Band.To))
 			case n.Scoop == nil:
-				fmt.Fprintln(w, "  no scoop at this blend position")
+				fmt.Fprintln(w, "  no scoop at this knob setting")
 			default:
 				fmt.Fprintln(w, "  the metric vanishes with a small change of every part")
 			}

@@ -18,6 +18,7 @@ func init() { register(newSweepCmd) }
 func newSweepCmd(a *app) *cobra.Command {
 	var sources, loads, plotPath string
 	var blend float64
+	kc := knobChoice{flag: "blend"}
 	var asJSON bool
 	c := &cobra.Command{
 		Use:   "sweep DESIGN.yaml --source LIST [--load LIST]",
@@ -65,7 +66,12 @@ value − value_design.`,
 			if err != nil {
 				return err
 			}
-			res, err := networks.Sweep(d, srcs, lds, blend)
+			kc.positions = posLabel(blend)
+			at, err := kc.single(cmd, d)
+			if err != nil {
+				return err
+			}
+			res, err := networks.Sweep(d, srcs, lds, at)
 			if err != nil {
 				return badInput(fmt.Errorf("%s: %w", args[0], err))
 			}
@@ -78,7 +84,8 @@ value − value_design.`,
 	}
 	c.Flags().StringVar(&sources, "source", "", "source impedances to try, a comma-separated `LIST` (100,1k,4.7k,22k; 0 is an ideal source)")
 	c.Flags().StringVar(&loads, "load", "", "load resistances to try, a comma-separated `LIST` (100k,1M; open for none)")
-	c.Flags().Float64Var(&blend, "blend", networks.DefaultStudyBlend, "blend knob position for the gain and the scoop, 0 (low-pass end) to 1 (high-pass end)")
+	c.Flags().Float64Var(&blend, "blend", networks.DefaultStudyBlend, "blend knob position for the gain and the scoop, 0 (low-pass end) to 1 (high-pass end); for another design, its swept knob")
+	addKnobFlag(c, &kc, false)
 	c.Flags().StringVar(&plotPath, "plot", "", "draw the curves at the blend position, one per value, to `FILE` (.png or .svg)")
 	c.Flags().BoolVar(&asJSON, "json", false, "print the sweep as JSON")
 	return c
@@ -152,7 +159,7 @@ func shiftPct(v *float64) string {
 // writeSweep prints the sweep table.
 func writeSweep(w io.Writer, d *networks.Design, res *networks.SweepResult) {
 	nom := networks.MetricsOf(res.Nominal)
-	fmt.Fprintf(w, "%s: %s; blend %s\n", designTitle(d), describeDesign(d), posLabel(res.Blend))
+	fmt.Fprintf(w, "%s: %s; %s\n", designTitle(d), describeDesign(d), studyLabel(d, res.Knobs))
 	fmt.Fprintf(w, "design's own: %s\n\n", metricsLine(nom, d))
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintln(tw, "source\tload\tgain 1 kHz\tΔ dB\tscoop at\tΔ %\tdepth\tΔ dB\tbalance\tΔ dB\tcorner\tΔ %\t")
@@ -212,16 +219,16 @@ func sweepPlot(d *networks.Design, res *networks.SweepResult, bySource, byLoad b
 		what = "source impedance"
 	}
 	b := &bode{
-		Title:   designTitle(d) + ": blend " + posLabel(res.Blend),
+		Title:   designTitle(d) + ": " + studyLabel(d, res.Knobs),
 		Caption: "sweep of the " + what + "; dashed: the design as it is",
 		Range:   d.Band,
 	}
 	for _, r := range res.Rows {
-		c := designCurves(networks.Variant(d, r.SourceOhm, r.LoadOhm), []float64{res.Blend}, false)[0]
+		c := designCurves(networks.Variant(d, r.SourceOhm, r.LoadOhm), []networks.Setting{res.Knobs}, false)[0]
 		c.Label = label(r.SourceOhm, r.LoadOhm)
 		b.Curves = append(b.Curves, c)
 	}
-	own := designCurves(d, []float64{res.Blend}, false)[0]
+	own := designCurves(d, []networks.Setting{res.Knobs}, false)[0]
 	own.Label = "design: " + label(d.Source.Impedance, d.Load.R)
 	own.Dash, own.Color = true, color.Black
 	b.Curves = append(b.Curves, own)

@@ -666,7 +666,7 @@ func plotSynth(res *synth.Result, path string, inputs ...string) error {
 		Title:   "synthesized: " + designTitle(d),
 		Caption: describeDesign(d),
 		Range:   d.Band,
-		Curves:  designCurves(d, networks.DefaultPositions, false),
+		Curves:  designCurves(d, atSwept(d, networks.DefaultPositions...), false),
 	}
 	t := res.Targets
 	if t.ScoopHz != nil && res.Metrics.ScoopFound {

@@ -22,6 +22,7 @@ func newToleranceCmd(a *app) *cobra.Command {
 	var trials, workers int
 	var seed uint64
 	var blend float64
+	kc := knobChoice{flag: "blend"}
 	var asJSON bool
 	c := &cobra.Command{
 		Use:   "tolerance DESIGN.yaml",
@@ -81,9 +82,14 @@ trials run on all cores; the report depends on --seed only.`,
 			if err != nil {
 				return err
 			}
+			kc.positions = posLabel(blend)
+			at, err := kc.single(cmd, d)
+			if err != nil {
+				return err
+			}
 			spec := networks.ToleranceSpec{
 				Parts: networks.PartTolerances(d, given), Dist: ds,
-				Trials: trials, Seed: seed, Blend: blend, Workers: workers,
+				Trials: trials, Seed: seed, At: at, Workers: workers,
 			}
 			if plotPath != "" {
 				spec.CurveHz = networks.LogGrid(d.Band.From, d.Band.To, 40)
@@ -119,7 +125,8 @@ trials run on all cores; the report depends on --seed only.`,
 	c.Flags().Uint64Var(&seed, "seed", 1, "seed of the random draws; the same seed gives the same report")
 	c.Flags().StringVar(&dist, "dist", "uniform", "distribution `NAME` of the draws: uniform (within ± tolerance) or normal (tolerance = 3σ, truncated)")
 	_ = c.RegisterFlagCompletionFunc("dist", cobra.FixedCompletions([]string{"uniform", "normal"}, cobra.ShellCompDirectiveNoFileComp))
-	c.Flags().Float64Var(&blend, "blend", networks.DefaultStudyBlend, "blend knob position for the gain and the scoop, 0 (low-pass end) to 1 (high-pass end)")
+	c.Flags().Float64Var(&blend, "blend", networks.DefaultStudyBlend, "blend knob position for the gain and the scoop, 0 (low-pass end) to 1 (high-pass end); for another design, its swept knob")
+	addKnobFlag(c, &kc, false)
 	c.Flags().IntVar(&workers, "workers", 0, "goroutines to run the trials on (0: all cores); the report does not depend on it")
 	c.Flags().StringVar(&plotPath, "plot", "", "draw the design's curve with the 5th–95th percentile band to `FILE` (.png or .svg)")
 	c.Flags().BoolVar(&asJSON, "json", false, "print the report as JSON")
@@ -151,7 +158,7 @@ func writeTolerance(w io.Writer, d *networks.Design, rep *networks.ToleranceRepo
 		how = "normal, tolerance = 3σ, truncated there"
 	}
 	fmt.Fprintf(w, "%s: %s\n", designTitle(d), describeDesign(d))
-	fmt.Fprintf(w, "%d trials, %s, seed %d, blend %s\n\n", rep.Trials, how, rep.Seed, posLabel(rep.Blend))
+	fmt.Fprintf(w, "%d trials, %s, seed %d, %s\n\n", rep.Trials, how, rep.Seed, studyLabel(d, rep.Knobs))
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "part\tvalue\ttolerance\tfrom")
 	for _, p := range rep.Parts {
@@ -197,7 +204,7 @@ func writeTolerance(w io.Writer, d *networks.Design, rep *networks.ToleranceRepo
 // the band between the 5th and 95th percentile of the gain at each
 // frequency.
 func tolerancePlot(d *networks.Design, rep *networks.ToleranceReport) *bode {
-	nominal := designCurves(d, []float64{rep.Blend}, false)[0]
+	nominal := designCurves(d, []networks.Setting{rep.Knobs}, false)[0]
 	nominal.Label = "design"
 	bd := band{Label: "5th to 95th percentile"}
 	median := curve{Label: "median", Dash: true}
@@ -209,7 +216,7 @@ func tolerancePlot(d *networks.Design, rep *networks.ToleranceReport) *bode {
 		median.DB = append(median.DB, c.P50)
 	}
 	return &bode{
-		Title:   fmt.Sprintf("%s: blend %s, part tolerances", designTitle(d), posLabel(rep.Blend)),
+		Title:   fmt.Sprintf("%s: %s, part tolerances", designTitle(d), studyLabel(d, rep.Knobs)),
 		Caption: fmt.Sprintf("%d trials, %s draws, seed %d", rep.Trials, rep.Dist, rep.Seed),
 		Range:   d.Band,
 		Curves:  []curve{nominal, median},
