@@ -123,6 +123,8 @@ func FuzzParseDesign(f *testing.F) {
 	f.Add([]byte(exampleDesign))
 	f.Add([]byte("tone: {lowpass: {r: 1, c: 1}, highpass: {c: 1, r: 1}, pot: 1}"))
 	f.Add([]byte("band: {from: 1e-300, to: 1e300}\ntone: {lowpass: {r: 1k, c: 1u}, highpass: {c: 1p, r: 1G}, pot: {value: 1M, taper: C, midpoint: 0.99}}"))
+	f.Add([]byte("tone:\n  network: netlist\n  parts:\n    R1: {r: 10k, from: in, to: out}\n    C1: {c: 10n, from: out, to: gnd}\n"))
+	f.Add([]byte("source: {impedance: 38k}\ntone:\n  network: netlist\n  parts:\n    C1: {c: 250p, from: in, to: a}\n    t: {pot: 250k, taper: A, from: a, to: c, wiper: out}\n    b: {pot: 1M, from: c, to: d, wiper: d, position: 0.5}\n    g: {pot: 1M, from: d, to: gnd, wiper: d, knob: b, position: 0.5}\n    L1: {l: 500m, from: d, to: gnd}\nlevel: {pot: 100k}\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		d, err := ParseDesign(data, "fuzz.yaml")
 		if err != nil {

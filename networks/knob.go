@@ -177,24 +177,21 @@ func (s Setting) Label(names []string) string {
 	return strings.Join(parts, ", ")
 }
 
-// Varied returns, in the design's knob order, the knobs whose positions
-// differ between the settings; with one setting, the knobs not at their
-// design position, or the swept knob.
+// Varied returns, in the design's knob order, the knobs a table or legend
+// must name for the settings ss: those whose positions differ between the
+// settings, those at a position other than the design's, and those the
+// design gives no position (swept by default).
 func (d *Design) Varied(ss []Setting) []string {
 	var names []string
 	for _, k := range d.Knobs() {
-		for _, s := range ss[1:] {
-			if s[k.Name] != ss[0][k.Name] {
-				names = append(names, k.Name)
-				break
+		named := !k.Set
+		for _, s := range ss {
+			if p, ok := s[k.Name]; ok && (p != k.Position || p != ss[0][k.Name]) {
+				named = true
 			}
 		}
-	}
-	if len(names) == 0 && len(ss) > 0 {
-		for _, k := range d.Knobs() {
-			if !k.Set || ss[0][k.Name] != k.Position {
-				names = append(names, k.Name)
-			}
+		if named {
+			names = append(names, k.Name)
 		}
 	}
 	return names

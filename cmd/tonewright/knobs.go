@@ -109,6 +109,15 @@ func csvSetting(s networks.Setting, varied []string) string {
 	return strings.Join(parts, ";")
 }
 
+// cornerWhere says where a study measures the corner: at blend knob 1 for
+// a blend design, else at the study's setting.
+func cornerWhere(d *networks.Design) string {
+	if d.Tone.Network == networks.BlendNetwork {
+		return "knob 1"
+	}
+	return "this setting"
+}
+
 // studyLabel names the setting a study measures at: "blend 0.5" for a
 // blend design, else the knobs not at their design positions (or swept).
 func studyLabel(d *networks.Design, s networks.Setting) string {

@@ -29,7 +29,8 @@ differences with a step of 0.1 % in the logarithm of the value):
   depth, balance and gain at 1 kHz: dB per percent.
 
 The scoop and the gain are measured at the chosen blend knob position, the
-corner at knob 1. Each metric gets its own ranking, the part that moves it
+corner at blend knob 1 (for a blend design; for any other, at the same
+setting). Each metric gets its own ranking, the part that moves it
 most first, so the part to change for each goal reads from the top.`,
 		Example: `  tonewright sensitivity board.yaml
   tonewright sensitivity board.yaml --blend 0.3 --json`,
@@ -73,7 +74,7 @@ func writeSensitivity(w io.Writer, d *networks.Design, rep *networks.Sensitivity
 	for _, m := range networks.SensitivityMetrics {
 		title := m.Title + " (" + studyLabel(d, rep.Knobs) + ")"
 		if m.Key == "corner_pct_per_pct" {
-			title = m.Title + " (knob 1)"
+			title = m.Title + " (" + cornerWhere(d) + ")"
 		}
 		fmt.Fprintf(w, "\n%s, %s:\n", title, m.Unit)
 		ranked := rep.Ranked(m)

@@ -26,7 +26,7 @@ func newSweepCmd(a *app) *cobra.Command {
 		Long: `sweep measures the design once for every source impedance and every load
 resistance given (every combination: sources outer, loads inner) and prints
 the gain at 1 kHz and the scoop at the chosen blend knob position, the
-output corner (knob 1), and how far each lies from the design's own values.
+output corner (blend designs: at knob 1), and how far each lies from the design's own values.
 A source value replaces source.impedance (the coupling capacitor stays); a
 load value replaces load.r (the load capacitance stays). Give --source,
 --load or both; the one left out stays as the design has it.
@@ -179,7 +179,7 @@ func writeSweep(w io.Writer, d *networks.Design, res *networks.SweepResult) {
 	}
 	tw.Flush()
 	fmt.Fprintln(w, "\nΔ: shift from the design's own values, levels in dB, frequencies in % (100·(f/f_design − 1));")
-	fmt.Fprintln(w, "–: the design or the row has no scoop (or no corner). Corner: knob 1, −3 dB.")
+	fmt.Fprintf(w, "–: the design or the row has no scoop (or no corner). Corner: %s, −3 dB.\n", cornerWhere(d))
 }
 
 // metricsLine summarises study metrics on one line.

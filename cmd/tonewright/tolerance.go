@@ -30,7 +30,7 @@ func newToleranceCmd(a *app) *cobra.Command {
 		Long: `tolerance builds the design many times in simulation, each part drawn within
 its tolerance, and reports the 5th, 50th and 95th percentile of the gain at
 1 kHz, the scoop (frequency, depth, balance) at the chosen blend knob
-position and the output corner (knob 1), and the share of trials with no
+position and the output corner (blend designs: at knob 1), and the share of trials with no
 scoop.
 
 A part's tolerance, unless its kind is given by a flag: the smaller of its
@@ -190,7 +190,7 @@ func writeTolerance(w io.Writer, d *networks.Design, rep *networks.ToleranceRepo
 	row("scoop at", sHz, rep.ScoopHz, hz)
 	row("depth", sDepth, rep.DepthDB, db2)
 	row("balance", sBal, rep.BalanceDB, db2)
-	row("corner (knob 1)", n.CornerHz, rep.CornerHz, hz)
+	row("corner ("+cornerWhere(d)+")", n.CornerHz, rep.CornerHz, hz)
 	tw.Flush()
 	fmt.Fprintf(w, "\nno scoop in %s of the trials", pct(rep.NoScoopShare))
 	if rep.NoCornerShare > 0 {
