@@ -134,13 +134,19 @@ func (k *Compiled) Transfer(f float64) complex128 {
 // the row (1, Zs) times the blend matrix scaled by −y12 is
 // (y22 + Zs·det Y, 1 + Zs·y11), and |H| = |y12| / |A'|.
 func (k *Compiled) GainDB(f float64) float64 {
+	return 10 * math.Log10(k.Power(f))
+}
+
+// Power returns |V(out)/V(source)|² at frequency f: GainDB without the
+// logarithm, for scanning.
+func (k *Compiled) Power(f float64) float64 {
 	w := 2 * math.Pi * f
 	zs := k.sourceZ(w)
 	y11, y12, y22 := k.blend.admittances(w, k.ra, k.rb)
 	r := k.afterBlend(row{y22 + zs*(y11*y22-y12*y12), 1 + zs*y11}, w, true)
 	n := real(y12)*real(y12) + imag(y12)*imag(y12)
 	d := real(r.a)*real(r.a) + imag(r.a)*imag(r.a)
-	return 10 * math.Log10(n/d)
+	return n / d
 }
 
 // InputImpedance returns the impedance the section presents to the source

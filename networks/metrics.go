@@ -12,6 +12,15 @@ type Response interface {
 	GainDB(f float64) float64
 }
 
+// PowerResponse is a Response that also gives the power gain |H(f)|²
+// without a logarithm. The Meter scans its grids with it, which is cheaper,
+// and takes logarithms only where a figure is reported; where the power
+// leaves the normal range of float64 it scans in dB instead.
+type PowerResponse interface {
+	Response
+	Power(f float64) float64
+}
+
 // GridPerDecade is the density of the log grid the figures search on.
 const GridPerDecade = 240
 
@@ -56,9 +65,32 @@ type Meter struct {
 	grid  []float64 // the band, GridPerDecade per decade
 	upper []float64 // band low to 10 × band high, for the corner
 	lower []float64 // band low / 10 to band high, for the low corner
-	g     []float64 // gains on grid
-	gu    []float64 // gains on upper
-	gl    []float64 // gains on lower
+	g     []float64 // levels on grid
+	gu    []float64 // levels on upper
+	gl    []float64 // levels on lower
+	lv    level     // how the levels in g, gu and gl are held
+	pr    PowerResponse
+}
+
+// level says how a Meter holds the gains of its last scan: in dB, or as
+// power ratios |H|² (pw), which need no logarithm. The figures' thresholds
+// are in dB; by and db convert between the two.
+type level struct{ pw bool }
+
+// in returns the level of x dB.
+func (v level) in(x float64) float64 {
+	if v.pw {
+		return math.Pow(10, x/10)
+	}
+	return x
+}
+
+// db returns the level l in dB.
+func (v level) db(l float64) float64 {
+	if v.pw {
+		return 10 * math.Log10(l)
+	}
+	return l
 }
 
 // NewMeter returns a Meter for band, which must pass Band.Check.
@@ -90,10 +122,10 @@ func Gain1k(r Response) float64 { return r.GainDB(1000) }
 // below the lower shoulder is not a scoop. found is false when there is no
 // scoop.
 func (m *Meter) Scoop(r Response) (s Scoop, found bool) {
-	g := fill(r, m.grid, m.g)
+	g := m.fill(r, m.grid, m.g)
 	best := Scoop{DepthDB: math.Inf(1)}
-	forExtrema(g, 1, func(i, j int) {
-		fs, gs := goldenMin(r, m.grid[i-1], m.grid[j])
+	m.lv.forExtrema(g, 1, func(i, j int) {
+		fs, gs := m.golden(r, 1, m.grid[i-1], m.grid[j])
 		c := m.shoulders(r, i, fs, gs)
 		if c.NotchDB > -MinProminence {
 			return
@@ -113,10 +145,10 @@ func (m *Meter) Scoop(r Response) (s Scoop, found bool) {
 // MinProminence above max(M_lo, M_hi); height_db = G(f_p) − (M_lo + M_hi)/2
 // and balance_db = M_hi − M_lo. The peak reported has the largest height.
 func (m *Meter) Peak(r Response) (p Peak, found bool) {
-	g := fill(r, m.grid, m.g)
+	g := m.fill(r, m.grid, m.g)
 	best := Peak{HeightDB: math.Inf(-1)}
-	forExtrema(g, -1, func(i, j int) {
-		fp, gp := goldenMax(r, m.grid[i-1], m.grid[j])
+	m.lv.forExtrema(g, -1, func(i, j int) {
+		fp, gp := m.golden(r, -1, m.grid[i-1], m.grid[j])
 		lo := m.sideExtreme(r, 0, i, gp, -1)
 		hi := m.sideExtreme(r, i, len(m.grid), gp, -1)
 		if gp-math.Max(lo, hi) < MinProminence {
@@ -131,19 +163,35 @@ func (m *Meter) Peak(r Response) (p Peak, found bool) {
 }
 
 // forExtrema calls at(i, j) for every interior local minimum (sign 1) or
-// maximum (sign −1) of g: g[i] lies more than minStep beyond g[i−1], equal
-// to it up to g[j−1], and g[j] lies more than minStep back again.
-func forExtrema(g []float64, sign float64, at func(i, j int)) {
+// maximum (sign −1) of the levels g: g[i] lies more than minStep dB beyond
+// g[i−1], equal to it up to g[j−1], and g[j] lies more than minStep dB back
+// again.
+func (v level) forExtrema(g []float64, sign float64, at func(i, j int)) {
 	n := len(g)
+	// a lies more than minStep dB beyond b: a < b − minStep (in dB) or
+	// a < b·10^(−minStep/10) (in power) for a minimum, the mirror for a
+	// maximum.
+	step := -sign * minStep
+	if v.pw {
+		step = math.Pow(10, step/10)
+	}
+	beyond := func(a, b float64) bool {
+		if v.pw {
+			b *= step
+		} else {
+			b += step
+		}
+		return sign*a < sign*b
+	}
 	for i := 1; i < n-1; i++ {
-		if !(sign*g[i] < sign*g[i-1]-minStep) {
+		if !beyond(g[i], g[i-1]) {
 			continue
 		}
 		j := i + 1
 		for j < n-1 && g[j] == g[i] {
 			j++
 		}
-		if sign*g[j] > sign*g[i]+minStep {
+		if beyond(g[i], g[j]) {
 			at(i, j)
 		}
 		i = j - 1
@@ -155,7 +203,7 @@ func forExtrema(g []float64, sign float64, at func(i, j int)) {
 // balance_db defined as for Scoop. The search uses it where a candidate has
 // no scoop, so that it always has a slope to follow.
 func (m *Meter) LevelsAt(r Response, f float64) Scoop {
-	fill(r, m.grid, m.g)
+	m.fill(r, m.grid, m.g)
 	return m.levelsAt(r, f)
 }
 
@@ -189,16 +237,20 @@ func (m *Meter) shoulders(r Response, split int, fs, gs float64) Scoop {
 // grid[from:to] and at the split point (gain gs), refined by golden section
 // when it falls strictly inside the side.
 func (m *Meter) sideExtreme(r Response, from, to int, gs, sign float64) float64 {
-	k, v := -1, gs
+	k, l := -1, m.lv.in(gs)
 	for i := from; i < to; i++ {
-		if sign*m.g[i] > sign*v {
-			k, v = i, m.g[i]
+		if sign*m.g[i] > sign*l {
+			k, l = i, m.g[i]
 		}
 	}
-	if k > from && k < to-1 {
-		_, v = goldenSearch(r, m.grid[k-1], m.grid[k+1], -sign)
+	switch {
+	case k < 0:
+		return gs
+	case k > from && k < to-1:
+		_, v := m.golden(r, -sign, m.grid[k-1], m.grid[k+1])
+		return v
 	}
-	return v
+	return m.lv.db(l)
 }
 
 // Corner returns the output low-pass corner of a response. On the grid
@@ -209,29 +261,30 @@ func (m *Meter) sideExtreme(r Response, from, to int, gs, sign float64) float64 
 // than CornerDrop below it up to 10 × band high (located by bisection in
 // log f). found is false when there is no such frequency.
 func (m *Meter) Corner(r Response) (hz float64, found bool) {
-	g := fill(r, m.upper, m.gu)
+	g := m.fill(r, m.upper, m.gu)
 	k := -1
-	forExtrema(g, -1, func(i, j int) { k = i })
-	fref, gref := m.upper[0], g[0]
+	m.lv.forExtrema(g, -1, func(i, j int) { k = i })
+	fref, gref := m.upper[0], m.lv.db(g[0])
 	if k > 0 {
-		fref, gref = goldenMax(r, m.upper[k-1], m.upper[k+1])
+		fref, gref = m.golden(r, -1, m.upper[k-1], m.upper[k+1])
 	} else {
 		k = 0
 	}
 	target := gref - CornerDrop
+	t := m.lv.in(target)
 	last := len(g) - 1
-	if g[last] >= target {
+	if g[last] >= t {
 		return 0, false
 	}
 	j := last // the first point of the final run below target
-	for j > k+1 && g[j-1] < target {
+	for j > k+1 && g[j-1] < t {
 		j--
 	}
 	lo := m.upper[j-1]
 	if j == k+1 {
 		lo = fref
 	}
-	return bisectLog(r, lo, m.upper[j], target), true
+	return m.bisect(r, lo, m.upper[j], target), true
 }
 
 // LowCorner returns the low corner, the mirror of Corner: on the grid from
@@ -241,37 +294,52 @@ func (m *Meter) Corner(r Response) (hz float64, found bool) {
 // below it and below which G stays more than CornerDrop below it down to
 // band low / 10. found is false when there is none.
 func (m *Meter) LowCorner(r Response) (hz float64, found bool) {
-	g := fill(r, m.lower, m.gl)
+	g := m.fill(r, m.lower, m.gl)
 	last := len(g) - 1
 	k := -1
-	forExtrema(g, -1, func(i, j int) {
+	m.lv.forExtrema(g, -1, func(i, j int) {
 		if k < 0 {
 			k = i
 		}
 	})
-	fref, gref := m.lower[last], g[last]
+	fref, gref := m.lower[last], m.lv.db(g[last])
 	if k > 0 {
-		fref, gref = goldenMax(r, m.lower[k-1], m.lower[k+1])
+		fref, gref = m.golden(r, -1, m.lower[k-1], m.lower[k+1])
 	} else {
 		k = last
 	}
 	target := gref - CornerDrop
-	if g[0] >= target {
+	t := m.lv.in(target)
+	if g[0] >= t {
 		return 0, false
 	}
 	j := 0 // the last point of the first run below target
-	for j < k-1 && g[j+1] < target {
+	for j < k-1 && g[j+1] < t {
 		j++
 	}
 	hi := m.lower[j+1]
 	if j == k-1 {
 		hi = fref
 	}
-	return bisectLog(r, hi, m.lower[j], target), true
+	return m.bisect(r, hi, m.lower[j], target), true
 }
 
-// fill evaluates r on grid into g.
-func fill(r Response, grid, g []float64) []float64 {
+// fill evaluates r on grid into g, as power ratios when r gives them and
+// they are all normal numbers, else in dB, and sets m.lv to say which.
+func (m *Meter) fill(r Response, grid, g []float64) []float64 {
+	if p, ok := r.(PowerResponse); ok {
+		normal := true
+		for i, f := range grid {
+			v := p.Power(f)
+			g[i] = v
+			normal = normal && v >= 0x1p-1000 && v <= 0x1p1000
+		}
+		if normal {
+			m.lv, m.pr = level{pw: true}, p
+			return g
+		}
+	}
+	m.lv = level{}
 	for i, f := range grid {
 		g[i] = r.GainDB(f)
 	}
@@ -280,26 +348,24 @@ func fill(r Response, grid, g []float64) []float64 {
 
 const golden = 0.6180339887498949
 
-// goldenMin returns the frequency and gain of the minimum of r on [a, b],
-// by golden-section search in log f.
-func goldenMin(r Response, a, b float64) (float64, float64) {
-	return goldenSearch(r, a, b, 1)
+// at returns r's level at f, in the Meter's level domain.
+func (m *Meter) at(r Response, f float64) float64 {
+	if m.lv.pw {
+		return m.pr.Power(f)
+	}
+	return r.GainDB(f)
 }
 
-// goldenMax returns the frequency and gain of the maximum of r on [a, b].
-func goldenMax(r Response, a, b float64) (float64, float64) {
-	return goldenSearch(r, a, b, -1)
-}
-
-// goldenSearch minimises sign·G over [a, b] in log f until the bracket is
-// 1e-10 decade wide.
-func goldenSearch(r Response, a, b, sign float64) (float64, float64) {
-	la, lb := math.Log10(a), math.Log10(b)
+// golden finds the minimum (sign 1) or maximum (sign −1) of G on [a, b]
+// by golden-section search in ln f until the bracket is 1e-10 decade wide,
+// and returns its frequency and G there in dB.
+func (m *Meter) golden(r Response, sign, a, b float64) (float64, float64) {
+	la, lb := math.Log(a), math.Log(b)
 	x1 := lb - golden*(lb-la)
 	x2 := la + golden*(lb-la)
-	g := func(x float64) float64 { return sign * r.GainDB(math.Pow(10, x)) }
+	g := func(x float64) float64 { return sign * m.at(r, math.Exp(x)) }
 	f1, f2 := g(x1), g(x2)
-	for lb-la > 1e-10 {
+	for lb-la > 1e-10*math.Ln10 {
 		if f1 <= f2 {
 			lb, x2, f2 = x2, x1, f1
 			x1 = lb - golden*(lb-la)
@@ -310,22 +376,23 @@ func goldenSearch(r Response, a, b, sign float64) (float64, float64) {
 			f2 = g(x2)
 		}
 	}
-	x := (la + lb) / 2
-	return math.Pow(10, x), sign * g(x)
+	f := math.Exp((la + lb) / 2)
+	return f, r.GainDB(f)
 }
 
-// bisectLog finds f between from and to with G(f) = target, where G(from)
-// ≥ target > G(to), by bisection in log f to 1e-12 decade. from may lie
-// above or below to.
-func bisectLog(r Response, from, to, target float64) float64 {
-	a, b := math.Log10(from), math.Log10(to)
-	for math.Abs(b-a) > 1e-12 {
+// bisect finds f between from and to with G(f) = target dB, where
+// G(from) ≥ target > G(to), by bisection in ln f to 1e-12 decade. from
+// may lie above or below to.
+func (m *Meter) bisect(r Response, from, to, target float64) float64 {
+	a, b := math.Log(from), math.Log(to)
+	t := m.lv.in(target)
+	for math.Abs(b-a) > 1e-12*math.Ln10 {
 		c := (a + b) / 2
-		if r.GainDB(math.Pow(10, c)) >= target {
+		if m.at(r, math.Exp(c)) >= t {
 			a = c
 		} else {
 			b = c
 		}
 	}
-	return math.Pow(10, (a+b)/2)
+	return math.Exp((a + b) / 2)
 }
