@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"strings"
+
+	"tonewright/eseries"
 )
 
 // Design is a tone-and-level section as the design file describes it.
@@ -151,18 +153,24 @@ const (
 // key's last letter (.c and series_c are capacitances).
 func plausible(key string, v float64) error {
 	if strings.HasSuffix(key, ".c") || strings.HasSuffix(key, "series_c") {
-		if v < MinFarads || v > MaxFarads {
-			return fmt.Errorf("%s F is outside %s–%s F: is the prefix right (p, n, u)?", trimG(v), trimG(MinFarads), trimG(MaxFarads))
-		}
-		return nil
+		return CheckRange(v, "F")
 	}
-	if v < MinOhms || v > MaxOhms {
-		return fmt.Errorf("%s Ω is outside %s–%s Ω: is the prefix right (k, M)?", trimG(v), trimG(MinOhms), trimG(MaxOhms))
+	return CheckRange(v, "Ω")
+}
+
+// CheckRange reports a resistance (unit "Ω") or capacitance ("F") outside
+// the range a part may have, in the trade's notation.
+func CheckRange(v float64, unit string) error {
+	lo, hi, hint := MinOhms, MaxOhms, "k, M"
+	if unit == "F" {
+		lo, hi, hint = MinFarads, MaxFarads, "p, n, µ"
+	}
+	if v < lo || v > hi {
+		return fmt.Errorf("%s is outside %s to %s, the range a part may have: is the prefix right (%s)?",
+			eseries.WithUnit(v, 3, unit), eseries.WithUnit(lo, 3, unit), eseries.WithUnit(hi, 3, unit), hint)
 	}
 	return nil
 }
-
-func trimG(v float64) string { return fmt.Sprintf("%g", v) }
 
 func positive(v float64) bool    { return v > 0 && !math.IsInf(v, 0) }
 func nonNegative(v float64) bool { return v >= 0 && !math.IsInf(v, 0) }

@@ -30,7 +30,8 @@ then the output corner at knob 1 and the input and output impedances at
 1 kHz with the blend at its centre. The README defines every figure.`,
 		Example: `  tonewright analyze board.yaml
   tonewright analyze board.yaml --positions 0,0.5,1 --json
-  tonewright analyze board.yaml --csv curves.csv`,
+  tonewright analyze board.yaml --csv curves.csv
+  tonewright analyze board.yaml --csv - --points 20 | head`,
 		Args:              exactArgs(1, "DESIGN.yaml"),
 		ValidArgsFunction: yamlFiles,
 		RunE: func(cmd *cobra.Command, args []string) error {
@@ -41,6 +42,9 @@ then the output corner at knob 1 and the input and output impedances at
 			if points < 1 || points > 100000 {
 				return usageErrorf("--points %d: use a whole number from 1 to 100000", points)
 			}
+			if err := checkCSVFlags(cmd, csvPath, asJSON); err != nil {
+				return err
+			}
 			d, err := loadDesign(args[0])
 			if err != nil {
 				return err
@@ -48,6 +52,10 @@ then the output corner at knob 1 and the input and output impedances at
 			an, err := networks.Analyze(d, ps)
 			if err != nil {
 				return badInput(fmt.Errorf("%s: %w", args[0], err))
+			}
+			if csvPath == stdoutName {
+				_, err := a.out.Write(curvesCSV(d, ps, points))
+				return err
 			}
 			if csvPath != "" {
 				if err := writeFile(csvPath, curvesCSV(d, ps, points), args[0]); err != nil {
@@ -66,8 +74,8 @@ then the output corner at knob 1 and the input and output impedances at
 	}
 	c.Flags().StringVar(&positions, "positions", "0,0.25,0.5,0.75,1", "blend knob positions, 0 (low-pass end) to 1 (high-pass end)")
 	c.Flags().BoolVar(&asJSON, "json", false, "print the analysis as JSON")
-	c.Flags().StringVar(&csvPath, "csv", "", "write the curves (frequency, then magnitude dB and phase ° per position) to `FILE`")
-	c.Flags().IntVar(&points, "points", 100, "points per decade in the --csv file")
+	c.Flags().StringVar(&csvPath, "csv", "", "write the curves (frequency, then magnitude dB and phase ° per position) to `FILE` (- for standard output, instead of the table)")
+	c.Flags().IntVar(&points, "points", 100, "points per decade in the --csv output (needs --csv)")
 	return c
 }
 
@@ -142,12 +150,14 @@ func writeAnalysis(w io.Writer, d *networks.Design, an *networks.Analysis) {
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t\n", posLabel(p.Blend), db(p.Gain1kDB), hz(p.Scoop.Hz), db(p.Scoop.DepthDB), db(p.Scoop.BalanceDB))
 	}
 	tw.Flush()
+	fmt.Fprintln(w, "\ndepth: the scoop's level minus the mean of its two shoulders (negative: a dip);")
+	fmt.Fprintln(w, "balance: the upper shoulder minus the lower (positive: brighter, negative: darker).")
 	fmt.Fprintln(w)
 	corner := "none below " + hz(10*d.Band.To)
 	if an.CornerHz != nil {
 		corner = hz(*an.CornerHz)
 	}
-	fmt.Fprintf(w, "output corner (knob 1, −3 dB):       %s\n", corner)
+	fmt.Fprintf(w, "output corner (knob 1, -3 dB):       %s\n", corner)
 	fmt.Fprintf(w, "input impedance (1 kHz, blend %s):  %s\n", posLabel(an.ImpedanceBlend), ohm(an.InputImpedanceOhm))
 	fmt.Fprintf(w, "output impedance (1 kHz, blend %s): %s\n", posLabel(an.ImpedanceBlend), ohm(an.OutputImpedanceOhm))
 }
@@ -174,4 +184,20 @@ func curvesCSV(d *networks.Design, ps []float64, perDecade int) []byte {
 		b.WriteString("\n")
 	}
 	return b.Bytes()
+}
+
+// stdoutName is the file name that means standard output, as for most
+// tools.
+const stdoutName = "-"
+
+// checkCSVFlags refuses --points without --csv (it would do nothing) and
+// --csv - with --json (both would go to standard output).
+func checkCSVFlags(cmd *cobra.Command, csvPath string, asJSON bool) error {
+	if cmd.Flags().Changed("points") && csvPath == "" {
+		return usageErrorf("--points sets the density of the --csv output: give --csv FILE (or --csv - for standard output) too")
+	}
+	if csvPath == stdoutName && asJSON {
+		return usageErrorf("--csv - and --json both write to standard output: give --csv a file name, or leave out --json")
+	}
+	return nil
 }

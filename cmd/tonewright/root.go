@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"regexp"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -48,9 +49,7 @@ tolerances move the curve.`,
 	}
 	root.SetOut(a.out)
 	root.SetErr(a.err)
-	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error {
-		return usageErrorf("%v (see %s --help)", err, c.CommandPath())
-	})
+	root.SetFlagErrorFunc(flagError)
 	for _, c := range commands {
 		root.AddCommand(c(a))
 	}
@@ -70,6 +69,42 @@ tolerances move the curve.`,
 	}
 	return root
 }
+
+// flagError rewrites pflag's errors in the tool's words: a negative
+// number taken for a flag ("snap -5k") and a flag value of the wrong type
+// ("--seed -1").
+func flagError(c *cobra.Command, err error) error {
+	msg := err.Error()
+	if m := negativeArg.FindStringSubmatch(msg); m != nil {
+		return usageErrorf("%s: values are positive (a leading - starts a flag); see %s --help", m[1], c.CommandPath())
+	}
+	if m := badFlagValue.FindStringSubmatch(msg); m != nil {
+		name := m[2]
+		if i := strings.LastIndex(name, "--"); i >= 0 {
+			name = name[i+2:]
+		}
+		want := "a valid value"
+		if f := c.Flags().Lookup(name); f != nil {
+			switch f.Value.Type() {
+			case "uint64", "uint":
+				want = "a whole number, 0 or more"
+			case "int", "int64":
+				want = "a whole number"
+			case "float64":
+				want = "a number"
+			case "bool":
+				want = "true or false"
+			}
+		}
+		return usageErrorf("--%s %q: give %s; see %s --help", name, m[1], want, c.CommandPath())
+	}
+	return usageErrorf("%v (see %s --help)", err, c.CommandPath())
+}
+
+var (
+	negativeArg  = regexp.MustCompile(`^unknown shorthand flag: '[0-9.]' in (-[0-9.].*)$`)
+	badFlagValue = regexp.MustCompile(`^invalid argument "(.*)" for "(.*)" flag: `)
+)
 
 // shellNames lists the shells the completion command writes scripts for.
 func shellNames(completion *cobra.Command) string {

@@ -30,8 +30,8 @@ A source value replaces source.impedance (the coupling capacitor stays); a
 load value replaces load.r (the load capacitance stays). Give --source,
 --load or both; the one left out stays as the design has it.
 
-Shifts: frequencies in percent, 100·(f/f_design − 1); levels in dB,
-value − value_design.`,
+Shifts: frequencies in percent, 100·(f/f_design - 1); levels in dB,
+value - value_design.`,
 		Example: `  tonewright sweep board.yaml --source 100,1k,4.7k,22k
   tonewright sweep board.yaml --source 1k,10k --load 100k,1M,open --blend 0.3
   tonewright sweep board.yaml --load 250k,1M --plot loads.png --json`,
@@ -109,6 +109,11 @@ func parseImpedances(flag, s string, load bool) ([]float64, error) {
 		if v < 0 || (load && v == 0) {
 			return nil, usageErrorf("--%s: %q is not a usable %s: give %s", flag, f, what, forms)
 		}
+		if v > 0 {
+			if err := checkFlagRange(flag, f, v, "Ω"); err != nil {
+				return nil, err
+			}
+		}
 		out = append(out, v)
 	}
 	if len(out) == 0 {
@@ -128,7 +133,7 @@ func loadLabel(r float64) string {
 // shiftDB prints a level shift in dB with two decimals and a sign.
 func shiftDB(v *float64) string {
 	if v == nil {
-		return "–"
+		return "—"
 	}
 	x := *v
 	if math.Abs(x) < 0.005 {
@@ -140,7 +145,7 @@ func shiftDB(v *float64) string {
 // shiftPct prints a frequency shift in percent with a sign.
 func shiftPct(v *float64) string {
 	if v == nil {
-		return "–"
+		return "—"
 	}
 	x := *v
 	if math.Abs(x) < 0.05 {
@@ -162,17 +167,17 @@ func writeSweep(w io.Writer, d *networks.Design, res *networks.SweepResult) {
 		if m.Scoop != nil {
 			fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t", hz(m.Scoop.Hz), shiftPct(r.Shift.ScoopHzPct), db(m.Scoop.DepthDB), shiftDB(r.Shift.DepthDB), db(m.Scoop.BalanceDB), shiftDB(r.Shift.BalanceDB))
 		} else {
-			fmt.Fprint(tw, "no scoop\t–\t\t–\t\t–\t")
+			fmt.Fprint(tw, "no scoop\t—\t\t—\t\t—\t")
 		}
 		if m.CornerHz != nil {
 			fmt.Fprintf(tw, "%s\t%s\t\n", hz(*m.CornerHz), shiftPct(r.Shift.CornerPct))
 		} else {
-			fmt.Fprint(tw, "none\t–\t\n")
+			fmt.Fprint(tw, "none\t—\t\n")
 		}
 	}
 	tw.Flush()
-	fmt.Fprintln(w, "\nΔ: shift from the design's own values, levels in dB, frequencies in % (100·(f/f_design − 1));")
-	fmt.Fprintln(w, "–: the design or the row has no scoop (or no corner). Corner: knob 1, −3 dB.")
+	fmt.Fprintln(w, "\nΔ: shift from the design's own values, levels in dB, frequencies in % (100·(f/f_design - 1));")
+	fmt.Fprintln(w, "—: the design or the row has no scoop (or no corner). Corner: knob 1, -3 dB.")
 }
 
 // metricsLine summarises study metrics on one line.

@@ -72,7 +72,7 @@ design is still reported and written).`,
 	fl.StringVar(&f.depth, "depth", "", "scoop depth below the shoulders in dB, negative, e.g. -10")
 	fl.StringVar(&f.balance, "balance", "", "upper shoulder minus lower shoulder in dB (default 0; re-voicing: kept)")
 	fl.StringVar(&f.at, "at", "", "blend knob position the scoop is measured at, 0..1 (default 0.5)")
-	fl.StringVar(&f.corner, "corner", "", "output corner at knob 1 (−3 dB), e.g. 5k")
+	fl.StringVar(&f.corner, "corner", "", "output corner at knob 1 (-3 dB), e.g. 5k")
 	fl.StringVar(&f.source, "source", "", "output impedance of the driving stage, e.g. 6.8k")
 	fl.StringVar(&f.load, "load", "", "load resistance, e.g. 1M, or open")
 	fl.StringVar(&f.loadC, "load-c", "", "load capacitance (cable), e.g. 470p")
@@ -125,6 +125,9 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 	}
 	if f.stock != "" {
 		inputs = append(inputs, f.stock)
+	}
+	for _, n := range stockWins(cmd, p) {
+		fmt.Fprintf(a.err, "tonewright: note: %s\n", n)
 	}
 	// Refuse bad output names before the search, not after it.
 	if f.out != "" {
@@ -278,6 +281,11 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 		if v < 0 {
 			return usageErrorf("--source %q: give the driving stage's output impedance, e.g. 6.8k or 0", f.source)
 		}
+		if v > 0 {
+			if err := checkFlagRange("source", f.source, v, "Ω"); err != nil {
+				return err
+			}
+		}
 		s := networks.Source{}
 		if p.Source != nil {
 			s = *p.Source
@@ -301,6 +309,8 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 				return err
 			} else if !(l.R > 0) {
 				return usageErrorf("--load %q: give the load resistance, e.g. 1M, or open", f.load)
+			} else if err := checkFlagRange("load", f.load, l.R, "Ω"); err != nil {
+				return err
 			}
 		}
 		if set("load-c") {
@@ -308,6 +318,10 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 				return err
 			} else if l.C < 0 {
 				return usageErrorf("--load-c %q: give the load capacitance, e.g. 470p, or 0", f.loadC)
+			} else if l.C > 0 {
+				if err := checkFlagRange("load-c", f.loadC, l.C, "F"); err != nil {
+					return err
+				}
 			}
 		}
 		p.Load = &l
@@ -359,6 +373,30 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 		p.MaxChanges = f.maxChanges
 	}
 	return nil
+}
+
+// stockWins says, for each kind of part that both the stock file and a
+// series or list (flag or targets file) give, that the stock file wins.
+func stockWins(cmd *cobra.Command, p *synth.Problem) []string {
+	st := p.Parts.Stock
+	if st == nil {
+		return nil
+	}
+	var notes []string
+	for _, k := range []struct {
+		kind  string
+		stock []float64
+		given bool
+	}{
+		{"resistors", st.Resistors, cmd.Flags().Changed("resistors") || p.Parts.Resistors != nil},
+		{"capacitors", st.Capacitors, cmd.Flags().Changed("capacitors") || p.Parts.Capacitors != nil},
+		{"pots", st.Pots, cmd.Flags().Changed("pots") || p.Parts.Pots != nil},
+	} {
+		if len(k.stock) > 0 && k.given {
+			notes = append(notes, fmt.Sprintf("the stock file %s lists %s: only those are used, not the %s series or list given (the stock file wins)", st.File, k.kind, k.kind))
+		}
+	}
+	return notes
 }
 
 var flagExample = map[string]string{
