@@ -5,6 +5,7 @@ import (
 	"image/color"
 	"io"
 	"math"
+	"slices"
 	"strings"
 	"text/tabwriter"
 
@@ -218,17 +219,52 @@ func sweepPlot(d *networks.Design, res *networks.SweepResult, bySource, byLoad b
 	}
 	b := &bode{
 		Title:   designTitle(d) + ": blend " + posLabel(res.Blend),
-		Caption: "sweep of the " + what + "; dashed: the design as it is",
+		Caption: "sweep of the " + what + "; dashed black: the design as it is",
 		Range:   d.Band,
+	}
+	// The curves are a family ordered by the swept value: coloured by the
+	// dimension with more values (sources on a tie), styled by the other.
+	var srcs, loads []float64
+	for _, r := range res.Rows {
+		if !slices.Contains(srcs, r.SourceOhm) {
+			srcs = append(srcs, r.SourceOhm)
+		}
+		if !slices.Contains(loads, r.LoadOhm) {
+			loads = append(loads, r.LoadOhm)
+		}
+	}
+	bySourceColour := bySource && (!byLoad || len(srcs) >= len(loads))
+	var names []string
+	if bySourceColour {
+		for _, s := range srcs {
+			names = append(names, ohm(s))
+		}
+		b.Scale = rankScale("source impedance", names)
+	} else {
+		for _, l := range loads {
+			names = append(names, loadLabel(l))
+		}
+		b.Scale = rankScale("load resistance", names)
 	}
 	for _, r := range res.Rows {
 		c := designCurves(networks.Variant(d, r.SourceOhm, r.LoadOhm), []float64{res.Blend}, false)[0]
 		c.Label = label(r.SourceOhm, r.LoadOhm)
+		si, li := slices.Index(srcs, r.SourceOhm), slices.Index(loads, r.LoadOhm)
+		switch {
+		case bySourceColour && byLoad:
+			c.Order, c.Style, c.StyleLabel = float64(si), li, "load "+loadLabel(r.LoadOhm)
+		case bySourceColour:
+			c.Order = float64(si)
+		case bySource:
+			c.Order, c.Style, c.StyleLabel = float64(li), si, "source "+ohm(r.SourceOhm)
+		default:
+			c.Order = float64(li)
+		}
 		b.Curves = append(b.Curves, c)
 	}
 	own := designCurves(d, []float64{res.Blend}, false)[0]
 	own.Label = "design: " + label(d.Source.Impedance, d.Load.R)
-	own.Dash, own.Color = true, color.Black
+	own.Dash, own.Color, own.Family = true, color.Black, false
 	b.Curves = append(b.Curves, own)
 	return b
 }

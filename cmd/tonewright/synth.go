@@ -11,6 +11,8 @@ import (
 	"text/tabwriter"
 	"time"
 
+	"image/color"
+
 	"github.com/schollz/progressbar/v3"
 	"github.com/spf13/cobra"
 
@@ -165,7 +167,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		}
 	}
 	if f.plot != "" {
-		if err := plotSynth(res, f.plot, inputs...); err != nil {
+		if err := plotSynth(res, p.From, f.plot, inputs...); err != nil {
 			return err
 		}
 	}
@@ -697,8 +699,15 @@ func heldParts(res *synth.Result) []string {
 
 // plotSynth draws the chosen design at the standard knob positions with the
 // targets: the scoop as a cross at the wanted frequency and level on the
-// measured curve's shoulders, the corner as a dashed line.
-func plotSynth(res *synth.Result, path string, inputs ...string) error {
+// measured curve's shoulders, the corner as a dotted line. A re-voicing
+// (original not nil) adds the original design's curve at the scoop's knob
+// position, dashed.
+func plotSynth(res *synth.Result, original *networks.Design, path string, inputs ...string) error {
+	return synthBode(res, original).render(path, inputs...)
+}
+
+// synthBode is the plot plotSynth draws.
+func synthBode(res *synth.Result, original *networks.Design) *bode {
 	d := res.Design
 	b := &bode{
 		Title:   "synthesized: " + designTitle(d),
@@ -707,6 +716,18 @@ func plotSynth(res *synth.Result, path string, inputs ...string) error {
 		Curves:  designCurves(d, networks.DefaultPositions, false),
 	}
 	t := res.Targets
+	if original != nil {
+		at := synth.DefaultAt
+		if t.At != nil {
+			at = *t.At
+		}
+		o := designCurves(original, []float64{at}, false)[0]
+		o.Label = "original design, blend " + posLabel(at)
+		o.Dash, o.Color, o.Family, o.Marks = true, color.Black, false, nil
+		b.Curves = append(b.Curves, o)
+		b.Title = "re-voiced: " + designTitle(d)
+		b.Caption += "; dashed black: the original design"
+	}
 	if t.ScoopHz != nil && res.Metrics.ScoopFound {
 		at := synth.DefaultAt
 		if t.At != nil {
@@ -725,5 +746,5 @@ func plotSynth(res *synth.Result, path string, inputs ...string) error {
 	if t.CornerHz != nil && *t.CornerHz > d.Band.To {
 		b.Range.To = math.Min(*t.CornerHz*1.5, 10*d.Band.To)
 	}
-	return b.render(path, inputs...)
+	return b
 }

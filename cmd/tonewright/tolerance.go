@@ -198,7 +198,7 @@ func writeTolerance(w io.Writer, d *networks.Design, rep *networks.ToleranceRepo
 // frequency.
 func tolerancePlot(d *networks.Design, rep *networks.ToleranceReport) *bode {
 	nominal := designCurves(d, []float64{rep.Blend}, false)[0]
-	nominal.Label = "design"
+	nominal.Label, nominal.Family = "design", false
 	bd := band{Label: "5th to 95th percentile"}
 	median := curve{Label: "median", Dash: true}
 	for _, c := range rep.Curve {
