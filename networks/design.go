@@ -72,10 +72,10 @@ func (d *Design) Validate() error {
 		return fieldError("band", err)
 	}
 	if !nonNegative(d.Source.Impedance) {
-		return fieldError("source.impedance", fmt.Errorf("%v Ω must be zero or positive and finite", d.Source.Impedance))
+		return fieldError("source.impedance", fmt.Errorf("%s must be zero or positive and finite", eseries.WithUnit(d.Source.Impedance, 3, "Ω")))
 	}
 	if !nonNegative(d.Source.SeriesC) {
-		return fieldError("source.series_c", fmt.Errorf("%v F must be zero (none) or positive and finite", d.Source.SeriesC))
+		return fieldError("source.series_c", fmt.Errorf("%s must be zero (none) or positive and finite", eseries.WithUnit(d.Source.SeriesC, 3, "F")))
 	}
 	if d.Tone.Network != BlendNetwork {
 		return fieldError("tone.network", fmt.Errorf("unknown network %q: use %q", d.Tone.Network, BlendNetwork))
@@ -96,7 +96,7 @@ func (d *Design) Validate() error {
 	}
 	for _, c := range checks {
 		if !positive(c.v) {
-			return fieldError(c.key, fmt.Errorf("%v must be positive and finite", c.v))
+			return fieldError(c.key, fmt.Errorf("%s must be positive and finite", eseries.WithUnit(c.v, 3, unitOfKey(c.key))))
 		}
 		if err := plausible(c.key, c.v); err != nil {
 			return fieldError(c.key, err)
@@ -126,10 +126,10 @@ func (d *Design) Validate() error {
 		}
 	}
 	if !(d.Load.R > 0) {
-		return fieldError("load.r", fmt.Errorf("%v Ω must be positive (or open)", d.Load.R))
+		return fieldError("load.r", fmt.Errorf("%s must be positive (or open)", eseries.WithUnit(d.Load.R, 3, "Ω")))
 	}
 	if !nonNegative(d.Load.C) {
-		return fieldError("load.c", fmt.Errorf("%v F must be zero (none) or positive and finite", d.Load.C))
+		return fieldError("load.c", fmt.Errorf("%s must be zero (none) or positive and finite", eseries.WithUnit(d.Load.C, 3, "F")))
 	}
 	return nil
 }
@@ -151,11 +151,15 @@ const (
 
 // plausible checks a value against the range for its kind, told by the
 // key's last letter (.c and series_c are capacitances).
-func plausible(key string, v float64) error {
+func plausible(key string, v float64) error { return CheckRange(v, unitOfKey(key)) }
+
+// unitOfKey is the unit of a part value's key: F for .c and series_c,
+// else Ω.
+func unitOfKey(key string) string {
 	if strings.HasSuffix(key, ".c") || strings.HasSuffix(key, "series_c") {
-		return CheckRange(v, "F")
+		return "F"
 	}
-	return CheckRange(v, "Ω")
+	return "Ω"
 }
 
 // CheckRange reports a resistance (unit "Ω") or capacitance ("F") outside
@@ -164,6 +168,9 @@ func CheckRange(v float64, unit string) error {
 	lo, hi, hint := MinOhms, MaxOhms, "k, M"
 	if unit == "F" {
 		lo, hi, hint = MinFarads, MaxFarads, "p, n, µ"
+	}
+	if !(v > 0) {
+		return fmt.Errorf("%s must be positive", eseries.WithUnit(v, 3, unit))
 	}
 	if v < lo || v > hi {
 		return fmt.Errorf("%s is outside %s to %s, the range a part may have: is the prefix right (%s)?",

@@ -12,6 +12,8 @@ import (
 func TestNewcomerMessages(t *testing.T) {
 	dir := t.TempDir()
 	hzBand := writeTemp(t, "hz.yaml", strings.Replace(string(mustRead(t, exampleFile)), "band: {from: 20, to: 20k}", "band: {from: 20Hz, to: 20kHz}", 1))
+	load0 := writeTemp(t, "load0.yaml", strings.Replace(string(mustRead(t, demoFile)), "load: {r: 1M", "load: {r: 0", 1))
+	neg := writeTemp(t, "neg.yaml", strings.Replace(string(mustRead(t, exampleFile)), "r: 27k", "r: -27k", 1))
 	hzPart := writeTemp(t, "hzpart.yaml", strings.Replace(string(mustRead(t, exampleFile)), "r: 27k", "r: 27kHz", 1))
 	for _, tc := range []struct {
 		args     []string
@@ -35,6 +37,9 @@ func TestNewcomerMessages(t *testing.T) {
 		{[]string{"sweep", demoFile, "--source", "1e30"}, 2, "--source 1e30: 1e30 Ω is outside 1 mΩ to 1 TΩ", "source.impedance", ""},
 		{[]string{"sweep", demoFile, "--load", "0"}, 2, "--load", "prefix", ""},
 		{[]string{"synth", "--scoop-hz", "700", "--depth", "-8", "--load", "1e-9"}, 2, "--load 1e-9: 1 nΩ is outside", "load.r", ""},
+		// Values in the trade's notation; zero is not a prefix slip.
+		{[]string{"analyze", load0}, 2, "load.r: 0 Ω must be positive", "prefix", ""},
+		{[]string{"analyze", neg}, 2, "tone.lowpass.r: -27 kΩ must be positive", "", ""},
 		// Hz where a frequency is meant, refused elsewhere.
 		{[]string{"synth", "--scoop-hz", "700", "--depth", "-8", "--corner", "40kHz", "--filters", "0"}, 2, "corner target (40 kHz)", "", ""},
 		{[]string{"analyze", hzBand}, 0, "", "", ""},
