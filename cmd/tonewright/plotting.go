@@ -444,19 +444,30 @@ func (b *bode) render(path string, inputs ...string) error {
 	}
 	decades := math.Log10(b.Range.To / b.Range.From)
 	var placed []point
-	// place finds where m's label goes: below the ring, or stacked
-	// further down past labels already placed; ok is false when four
-	// places are all taken.
-	lineH := 0.035 * (hi - lo) // about a label's height, in dB
+	// place finds where m's label goes: below the ring, or stacked one or
+	// two lines further down; a place is taken when it would cover
+	// another label or another ring. ok is false when all are taken.
+	// Sizes are in axis units: a label is about 7 % of the axes wide and
+	// 3.5 % high.
+	lineH := 0.035 * (hi - lo)
+	halfW := 0.035 * decades
+	var ringsAt []point
+	for _, c := range b.Curves {
+		ringsAt = append(ringsAt, c.Marks...)
+	}
 	place := func(m point) (at point, ok bool) {
-		for k := 0; k < 4; k++ {
+		for k := 0; k < 3; k++ {
 			at = point{m.Hz, m.DB - float64(k)*lineH}
+			top, bottom := at.DB-0.15*lineH, at.DB-1.45*lineH
 			clear := true
 			for _, p := range placed {
-				// About a label's width and height, as parts of the axes.
-				if math.Abs(math.Log10(at.Hz/p.Hz)) < 0.065*decades && math.Abs(at.DB-p.DB) < lineH {
+				if math.Abs(math.Log10(at.Hz/p.Hz)) < 2*halfW && math.Abs(at.DB-p.DB) < 1.1*lineH {
 					clear = false
-					break
+				}
+			}
+			for _, r := range ringsAt {
+				if r != m && math.Abs(math.Log10(r.Hz/at.Hz)) < halfW+0.01*decades && r.DB < top && r.DB > bottom {
+					clear = false
 				}
 			}
 			if clear {
