@@ -96,5 +96,5 @@ func ExampleSeriesByName() {
 	fmt.Println(err)
 	// Output:
 	// E12 12 0.1
-	// eseries: unknown series "E25": use one of E3, E6, E12, E24, E48, E96, E192
+	// unknown series "E25": use one of E3, E6, E12, E24, E48, E96, E192
 }

@@ -83,3 +83,43 @@ func withPoint(digits string, n int) string {
 	}
 	return whole + "." + frac
 }
+
+// WithUnit writes v as the trade writes a value with its unit: sig
+// significant digits, a space, then the SI prefix and the unit, micro as
+// µ: "4.7 kΩ", "100 nF", "1 µF", "9 kHz", "680 Ω". It also reaches the
+// ends of the ranges part values take, tera and femto: "1 TΩ", "1 fF".
+// Values beyond those are written with an exponent: "1e30 Ω".
+func WithUnit(v float64, sig int, unit string) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return Format(v) + " " + unit
+	}
+	a := math.Abs(v)
+	s, extra := FormatSig(v, sig), ""
+	switch {
+	case a >= 1e12 && a < 1e15:
+		s, extra = FormatSig(v/1e12, sig), "T"
+	case a > 0 && a < 1e-12 && a >= 1e-15:
+		s, extra = FormatSig(v*1e15, sig), "f"
+	}
+	if strings.Contains(s, "e") {
+		return s + " " + unit
+	}
+	k := len(s)
+	for k > 0 && !(s[k-1] >= '0' && s[k-1] <= '9') {
+		k--
+	}
+	prefix := s[k:]
+	switch {
+	case extra == "":
+	case prefix == "":
+		prefix = extra
+	case extra == "f" && prefix == "k":
+		prefix = "p" // rounding carried 999.96 fF to 1 pF
+	default:
+		return FormatSig(v, sig) + " " + unit // carried past tera
+	}
+	if prefix == "u" {
+		prefix = "µ"
+	}
+	return s[:k] + " " + prefix + unit
+}

@@ -125,3 +125,30 @@ func TestFormatRoundTrip(t *testing.T) {
 		}
 	}
 }
+
+func TestWithUnit(t *testing.T) {
+	for _, test := range []struct {
+		v    float64
+		sig  int
+		unit string
+		want string
+	}{
+		{4700, 3, "Ω", "4.7 kΩ"},
+		{1e-6, 3, "F", "1 µF"},
+		{100e-9, 3, "F", "100 nF"},
+		{9000, 3, "Hz", "9 kHz"},
+		{680, 3, "Ω", "680 Ω"},
+		{1e-3, 3, "Ω", "1 mΩ"},
+		{1e12, 3, "Ω", "1 TΩ"},
+		{1e-15, 3, "F", "1 fF"},
+		{999.96e-15, 3, "F", "1 pF"},
+		{1e30, 3, "Ω", "1e30 Ω"},
+		{1e-20, 3, "F", "1e-20 F"},
+		{0, 3, "Ω", "0 Ω"},
+		{-2200, 2, "Ω", "-2.2 kΩ"},
+	} {
+		if got := WithUnit(test.v, test.sig, test.unit); got != test.want {
+			t.Errorf("WithUnit(%v, %d, %q) = %q, want %q", test.v, test.sig, test.unit, got, test.want)
+		}
+	}
+}

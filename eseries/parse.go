@@ -78,6 +78,7 @@ const (
 	unitOhm  = "Ω" // U+03A9, the form ParseUnit returns
 	unitF    = "F"
 	unitH    = "H"
+	unitHz   = "Hz"
 )
 
 // unitOf returns the canonical unit for a unit suffix, and whether s is one.
@@ -93,6 +94,8 @@ func unitOf(s string) (string, bool) {
 		return unitF, true
 	case s == "H":
 		return unitH, true
+	case s == "Hz":
+		return unitHz, true
 	}
 	return "", false
 }
@@ -105,7 +108,8 @@ func unitOf(s string) (string, bool) {
 //     (any of "meg", "Meg", "MEG") for mega: "4.7k", "2.2n", "1M", "1meg".
 //     "M" is mega and "m" milli;
 //   - after the prefix or number, an optional unit: Ω (U+2126 or U+03A9),
-//     ohm or ohms in any case, F, H: "4.7kΩ", "100nF", "10mH", "22 ohm".
+//     ohm or ohms in any case, F, H, Hz: "4.7kΩ", "100nF", "10mH", "22 ohm",
+//     "9kHz".
 //     One space may separate the number from prefix and unit: "1 kΩ";
 //   - an RKM code as in IEC 60062, where the prefix letter, or R for the
 //     unit itself, stands in the place of the decimal point: "4k7" (4700),
@@ -127,7 +131,7 @@ func Parse(s string) (float64, error) {
 }
 
 // ParseUnit is Parse that also returns the unit written after the value:
-// "Ω" (for any of the ohm spellings, and for RKM codes with R), "F", "H",
+// "Ω" (for any of the ohm spellings, and for RKM codes with R), "F", "H", "Hz",
 // or "" when there is none.
 func ParseUnit(s string) (v float64, unit string, err error) {
 	fail := func(reason string) (float64, string, error) {

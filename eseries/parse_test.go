@@ -38,6 +38,9 @@ func TestParse(t *testing.T) {
 		{"4.7\u00b5", 4.7e-6, ""}, // MICRO SIGN
 		{"4.7\u03bc", 4.7e-6, ""}, // GREEK SMALL LETTER MU
 		{"10m", 10e-3, ""},
+		{"9kHz", 9000, "Hz"},
+		{"700 Hz", 700, "Hz"},
+		{"1.2kHz", 1200, "Hz"},
 		{"1M", 1e6, ""},
 		{"2.2G", 2.2e9, ""},
 		{"-4.7k", -4700, ""},

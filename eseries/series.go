@@ -116,7 +116,7 @@ func SeriesByName(name string) (*Series, error) {
 			return s, nil
 		}
 	}
-	return nil, fmt.Errorf("eseries: unknown series %q: use one of %s", name, strings.Join(SeriesNames(), ", "))
+	return nil, fmt.Errorf("unknown series %q: use one of %s", name, strings.Join(SeriesNames(), ", "))
 }
 
 // String returns the name of the series, or a description if it has none.

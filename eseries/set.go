@@ -38,12 +38,12 @@ type List struct {
 // slice is copied.
 func NewList(values []float64) (*List, error) {
 	if len(values) == 0 {
-		return nil, fmt.Errorf("eseries: empty value list: give at least one positive value")
+		return nil, fmt.Errorf("empty value list: give at least one positive value")
 	}
 	for i, v := range values {
 		if !(v > 0) || math.IsInf(v, 1) {
-			return nil, fmt.Errorf("eseries: bad list value %s (number %d): values must be positive and finite",
-				strconv.FormatFloat(v, 'g', -1, 64), i+1)
+			return nil, fmt.Errorf("item %d of the list is %s: values must be positive and finite",
+				i+1, strconv.FormatFloat(v, 'g', -1, 64))
 		}
 	}
 	vs := slices.Clone(values)

@@ -240,8 +240,8 @@ func TestNewList(t *testing.T) {
 	}{
 		{nil, "empty"},
 		{[]float64{}, "empty"},
-		{[]float64{10, -3}, "-3 (number 2)"},
-		{[]float64{0}, "0 (number 1)"},
+		{[]float64{10, -3}, "item 2 of the list is -3"},
+		{[]float64{0}, "item 1 of the list is 0"},
 		{[]float64{1, math.NaN()}, "NaN"},
 		{[]float64{math.Inf(1)}, "+Inf"},
 		{[]float64{math.Inf(-1)}, "-Inf"},

@@ -36,11 +36,11 @@ type Snap struct {
 // members; the latter wraps ErrEmptySet.
 func SnapTo(s Set, v float64) (Snap, error) {
 	if !(v > 0) || math.IsInf(v, 1) {
-		return Snap{}, fmt.Errorf("eseries: cannot snap %s: the value must be positive and finite",
+		return Snap{}, fmt.Errorf("cannot snap %s: the value must be positive and finite",
 			strconv.FormatFloat(v, 'g', -1, 64))
 	}
 	if s == nil {
-		return Snap{}, fmt.Errorf("eseries: cannot snap %s: %w", Format(v), ErrEmptySet)
+		return Snap{}, fmt.Errorf("cannot snap %s: %w", Format(v), ErrEmptySet)
 	}
 	r := Snap{Value: v}
 	r.Below, r.HasBelow = s.Below(v)
@@ -57,7 +57,7 @@ func SnapTo(s Set, v float64) (Snap, error) {
 	case r.HasAbove:
 		r.Nearest = r.Above
 	default:
-		return Snap{}, fmt.Errorf("eseries: cannot snap %s to %v: %w", Format(v), s, ErrEmptySet)
+		return Snap{}, fmt.Errorf("cannot snap %s to %v: %w", Format(v), s, ErrEmptySet)
 	}
 	if r.HasBelow {
 		r.BelowErr = (r.Below - v) / v

@@ -3,6 +3,8 @@ package networks
 import (
 	"fmt"
 	"math"
+
+	"tonewright/eseries"
 )
 
 // Band is the analysis band in hertz.
@@ -24,13 +26,13 @@ const (
 // Check reports whether the band is usable.
 func (b Band) Check() error {
 	if !(b.From > 0) || math.IsInf(b.From, 0) || !(b.To > 0) || math.IsInf(b.To, 0) {
-		return fmt.Errorf("band %v–%v Hz: both ends must be positive and finite", b.From, b.To)
+		return fmt.Errorf("band %s–%s: both ends must be positive and finite", eseries.WithUnit(b.From, 3, "Hz"), eseries.WithUnit(b.To, 3, "Hz"))
 	}
 	if b.From >= b.To {
-		return fmt.Errorf("band %v–%v Hz: from must be below to", b.From, b.To)
+		return fmt.Errorf("band %s–%s: from must be below to", eseries.WithUnit(b.From, 3, "Hz"), eseries.WithUnit(b.To, 3, "Hz"))
 	}
 	if b.From < MinHz || b.To > MaxHz || b.To/b.From > MaxSpan {
-		return fmt.Errorf("band %v–%v Hz: keep it within %g Hz–%g Hz and at most %g decades wide", b.From, b.To, MinHz, MaxHz, math.Log10(MaxSpan))
+		return fmt.Errorf("band %s–%s: keep it within %s–%s and at most %g decades wide", eseries.WithUnit(b.From, 3, "Hz"), eseries.WithUnit(b.To, 3, "Hz"), eseries.WithUnit(MinHz, 3, "Hz"), eseries.WithUnit(MaxHz, 3, "Hz"), math.Log10(MaxSpan))
 	}
 	return nil
 }

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"strings"
+
+	"tonewright/eseries"
 )
 
 // Design is a tone-and-level section as the design file describes it.
@@ -86,10 +88,10 @@ func (d *Design) Validate() error {
 		return fieldError("band", err)
 	}
 	if !nonNegative(d.Source.Impedance) {
-		return fieldError("source.impedance", fmt.Errorf("%v Ω must be zero or positive and finite", d.Source.Impedance))
+		return fieldError("source.impedance", fmt.Errorf("%s must be zero or positive and finite", eseries.WithUnit(d.Source.Impedance, 3, "Ω")))
 	}
 	if !nonNegative(d.Source.SeriesC) {
-		return fieldError("source.series_c", fmt.Errorf("%v F must be zero (none) or positive and finite", d.Source.SeriesC))
+		return fieldError("source.series_c", fmt.Errorf("%s must be zero (none) or positive and finite", eseries.WithUnit(d.Source.SeriesC, 3, "F")))
 	}
 	if d.Tone.Network != BlendNetwork && d.Tone.Network != NetlistNetwork {
 		return fieldError("tone.network", fmt.Errorf("unknown network %q: use %s", d.Tone.Network, strings.Join(ToneNetworks(), ", ")))
@@ -123,7 +125,7 @@ func (d *Design) Validate() error {
 	}
 	for _, c := range checks {
 		if !positive(c.v) {
-			return fieldError(c.key, fmt.Errorf("%v must be positive and finite", c.v))
+			return fieldError(c.key, fmt.Errorf("%s must be positive and finite", eseries.WithUnit(c.v, 3, unitOfKey(c.key))))
 		}
 		if err := plausible(c.key, c.v); err != nil {
 			return fieldError(c.key, err)
@@ -155,10 +157,10 @@ func (d *Design) Validate() error {
 		}
 	}
 	if !(d.Load.R > 0) {
-		return fieldError("load.r", fmt.Errorf("%v Ω must be positive (or open)", d.Load.R))
+		return fieldError("load.r", fmt.Errorf("%s must be positive (or open)", eseries.WithUnit(d.Load.R, 3, "Ω")))
 	}
 	if !nonNegative(d.Load.C) {
-		return fieldError("load.c", fmt.Errorf("%v F must be zero (none) or positive and finite", d.Load.C))
+		return fieldError("load.c", fmt.Errorf("%s must be zero (none) or positive and finite", eseries.WithUnit(d.Load.C, 3, "F")))
 	}
 	if d.Tone.Network == NetlistNetwork {
 		if _, err := d.Network(nil).Compile(); err != nil {
@@ -187,26 +189,40 @@ const (
 
 // plausible checks a value against the range for its kind, told by the
 // key's last letter (.c and series_c are capacitances).
-func plausible(key string, v float64) error {
+func plausible(key string, v float64) error { return CheckRange(v, unitOfKey(key)) }
+
+// unitOfKey is the unit of a part value's key: H for .l, F for .c and
+// series_c, else Ω.
+func unitOfKey(key string) string {
 	if strings.HasSuffix(key, ".l") {
-		if v < MinHenries || v > MaxHenries {
-			return fmt.Errorf("%s H is outside %s–%s H: is the prefix right (µ, m)?", trimG(v), trimG(MinHenries), trimG(MaxHenries))
-		}
-		return nil
+		return "H"
 	}
 	if strings.HasSuffix(key, ".c") || strings.HasSuffix(key, "series_c") {
-		if v < MinFarads || v > MaxFarads {
-			return fmt.Errorf("%s F is outside %s–%s F: is the prefix right (p, n, u)?", trimG(v), trimG(MinFarads), trimG(MaxFarads))
-		}
-		return nil
+		return "F"
 	}
-	if v < MinOhms || v > MaxOhms {
-		return fmt.Errorf("%s Ω is outside %s–%s Ω: is the prefix right (k, M)?", trimG(v), trimG(MinOhms), trimG(MaxOhms))
+	return "Ω"
+}
+
+// CheckRange reports a resistance (unit "Ω"), capacitance ("F") or
+// inductance ("H") outside the range a part may have, in the trade's
+// notation.
+func CheckRange(v float64, unit string) error {
+	lo, hi, hint := MinOhms, MaxOhms, "k, M"
+	switch unit {
+	case "F":
+		lo, hi, hint = MinFarads, MaxFarads, "p, n, µ"
+	case "H":
+		lo, hi, hint = MinHenries, MaxHenries, "µ, m"
+	}
+	if !(v > 0) {
+		return fmt.Errorf("%s must be positive", eseries.WithUnit(v, 3, unit))
+	}
+	if v < lo || v > hi {
+		return fmt.Errorf("%s is outside %s to %s, the range a part may have: is the prefix right (%s)?",
+			eseries.WithUnit(v, 3, unit), eseries.WithUnit(lo, 3, unit), eseries.WithUnit(hi, 3, unit), hint)
 	}
 	return nil
 }
-
-func trimG(v float64) string { return fmt.Sprintf("%g", v) }
 
 func positive(v float64) bool    { return v > 0 && !math.IsInf(v, 0) }
 func nonNegative(v float64) bool { return v >= 0 && !math.IsInf(v, 0) }

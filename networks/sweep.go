@@ -5,6 +5,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+
+	"tonewright/eseries"
 )
 
 // This file holds the source and load sweep, and the single-knob
@@ -169,7 +171,7 @@ func Sweep(d *Design, sources, loads []float64, at Setting) (*SweepResult, error
 		for _, l := range loads {
 			a, err := AnalyzeSettings(Variant(d, s, l), pos)
 			if err != nil {
-				return nil, fmt.Errorf("source %v Ω, load %v Ω: %w", s, l, err)
+				return nil, fmt.Errorf("source %s, load %s: %w", eseries.WithUnit(s, 3, "Ω"), eseries.WithUnit(l, 3, "Ω"), err)
 			}
 			res.Rows = append(res.Rows, SweepRow{SourceOhm: s, LoadOhm: l, Metrics: a, Shift: MetricsOf(a).ShiftFrom(nm)})
 		}

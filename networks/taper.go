@@ -100,3 +100,17 @@ func (t Taper) check() error {
 	}
 	return nil
 }
+
+// Code returns the letter pots of this law are marked with: A audio, B
+// linear, C reverse-audio, the letters ParseTaper reads (common practice,
+// no published source; some makers, older European ones especially, use
+// other letters, so the law's name goes with it in every listing).
+func (t Taper) Code() string {
+	switch t.Law {
+	case Audio:
+		return "A"
+	case ReverseAudio:
+		return "C"
+	}
+	return "B"
+}

@@ -182,22 +182,26 @@ func (d *Decoder) scalar(n *yaml.Node, path, what string) (string, error) {
 }
 
 // Value reads a part value: a number, an SI-prefixed value or an RKM code
-// (see eseries.Parse). It must be finite; sign checks are the caller's.
+// (see eseries.Parse). It must be finite; sign checks are the caller's. A
+// unit in Hz is refused: a part value is not a frequency.
 func (d *Decoder) Value(n *yaml.Node, path string) (float64, error) {
 	s, err := d.scalar(n, path, "a value such as 4.7k, 100n or 4k7")
 	if err != nil {
 		return 0, err
 	}
-	v, err := eseries.Parse(s)
+	v, unit, err := eseries.ParseUnit(s)
 	if err != nil {
 		return 0, d.Errorf(n, path, "%v", err)
+	}
+	if unit == "Hz" {
+		return 0, d.Errorf(n, path, "%q is in Hz, but %s is a part value: write it in Ω or F, or without a unit", s, path)
 	}
 	return v, nil
 }
 
 // ValueIn reads a part value like Value, and if it is written with a unit,
-// the unit must be want (Ω for resistances, F for capacitances; Hz, for
-// frequencies, means no unit is accepted).
+// the unit must be want (Ω for resistances, F for capacitances, Hz for
+// frequencies).
 func (d *Decoder) ValueIn(n *yaml.Node, path, want string) (float64, error) {
 	s, err := d.scalar(n, path, "a value such as 4.7k, 100n or 4k7")
 	if err != nil {
@@ -209,9 +213,6 @@ func (d *Decoder) ValueIn(n *yaml.Node, path, want string) (float64, error) {
 	}
 	if unit != "" && unit != want {
 		kind := map[string]string{"Ω": "a resistance", "F": "a capacitance", "Hz": "a frequency"}[want]
-		if want == "Hz" {
-			return 0, d.Errorf(n, path, "%q is in %s, but %s is %s: write it without a unit, e.g. 5k", s, unit, path, kind)
-		}
 		return 0, d.Errorf(n, path, "%q is in %s, but %s is %s: write it in %s or without a unit", s, unit, path, kind, want)
 	}
 	return v, nil
@@ -293,7 +294,10 @@ func (d *Decoder) farads(v *float64) func(*yaml.Node, string) error {
 
 // Band reads {from, to}.
 func (d *Decoder) Band(n *yaml.Node, path string, b *Band) error {
-	return d.Map(n, path, Key{"from", d.into(&b.From)}, Key{"to", d.into(&b.To)})
+	hertz := func(v *float64) func(*yaml.Node, string) error {
+		return func(n *yaml.Node, p string) (err error) { *v, err = d.ValueIn(n, p, "Hz"); return }
+	}
+	return d.Map(n, path, Key{"from", hertz(&b.From)}, Key{"to", hertz(&b.To)})
 }
 
 // Source reads {impedance, series_c}.

@@ -195,12 +195,12 @@ func (p *Parts) resolve() (*sets, error) {
 	s.caps = eseries.Range(caps, s.capRange[0], s.capRange[1])
 	s.pots = pl
 	if _, err := eseries.SnapTo(s.res, s.resRange[0]); err != nil {
-		return nil, &networks.FieldError{Key: "parts.resistors", Err: fmt.Errorf("no resistor of %s lies in the range %s..%s", s.resName,
-			eseries.Format(s.resRange[0]), eseries.Format(s.resRange[1]))}
+		return nil, &networks.FieldError{Key: "parts.resistors", Err: fmt.Errorf("no resistor of %s lies in the range %s to %s", s.resName,
+			eseries.WithUnit(s.resRange[0], 3, "Ω"), eseries.WithUnit(s.resRange[1], 3, "Ω"))}
 	}
 	if _, err := eseries.SnapTo(s.caps, s.capRange[0]); err != nil {
-		return nil, &networks.FieldError{Key: "parts.capacitors", Err: fmt.Errorf("no capacitor of %s lies in the range %s..%s", s.capName,
-			eseries.Format(s.capRange[0]), eseries.Format(s.capRange[1]))}
+		return nil, &networks.FieldError{Key: "parts.capacitors", Err: fmt.Errorf("no capacitor of %s lies in the range %s to %s", s.capName,
+			eseries.WithUnit(s.capRange[0], 3, "F"), eseries.WithUnit(s.capRange[1], 3, "F"))}
 	}
 	return s, nil
 }

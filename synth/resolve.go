@@ -138,17 +138,17 @@ func (p *Problem) goal(d *networks.Design) (goal, error) {
 		// fall 3 dB by 10 × band top). A corner target then cannot be
 		// met, and aiming at it only drags the scoop away.
 		if len(d.Filters) == 0 && d.Load.C == 0 {
-			return g, fieldErrorf("targets.corner_hz", "the corner target (%sHz) needs at least one filter section or a load capacitance, and this synthesis has neither: "+
+			return g, fieldErrorf("targets.corner_hz", "the corner target (%s) needs at least one filter section or a load capacitance, and this synthesis has neither: "+
 				"add sections (filters: 1 or --filters 1) or the load's capacitance (load: {c: 470p} or --load-c 470p), or drop the corner target (corner_hz / --corner)",
-				eseries.Format(*t.CornerHz))
+				eseries.WithUnit(*t.CornerHz, 3, "Hz"))
 		}
 		g.corner, g.cornerHz = true, *t.CornerHz
 	}
 	if g.scoop {
 		b := d.Band
 		if !(g.hz > b.From && g.hz < b.To) {
-			return g, fieldErrorf("targets.scoop.hz", "%s Hz lies outside the band %s–%s Hz: the scoop must lie inside it",
-				eseries.Format(g.hz), eseries.Format(b.From), eseries.Format(b.To))
+			return g, fieldErrorf("targets.scoop.hz", "%s lies outside the band %s–%s: the scoop must lie inside it",
+				eseries.WithUnit(g.hz, 3, "Hz"), eseries.WithUnit(b.From, 3, "Hz"), eseries.WithUnit(b.To, 3, "Hz"))
 		}
 		if !(g.depth < 0) || math.IsInf(g.depth, 0) {
 			return g, fieldErrorf("targets.scoop.depth_db", "%v dB: a scoop's depth is negative (a dip below the shoulders), e.g. -10", g.depth)

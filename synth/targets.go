@@ -80,7 +80,7 @@ func ParseTargets(data []byte, name string) (*Problem, error) {
 	}
 	positiveHz := func(v float64) string {
 		if !(v > 0) {
-			return fmt.Sprintf("%v Hz must be a positive frequency, such as 800 or 1.2k", v)
+			return fmt.Sprintf("%s must be a positive frequency, such as 800 or 1.2k", eseries.WithUnit(v, 3, "Hz"))
 		}
 		return ""
 	}

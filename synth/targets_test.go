@@ -65,7 +65,7 @@ func TestSolveErrorPlaced(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, err = Solve(p, Options{})
-	if err == nil || !strings.HasPrefix(err.Error(), "t.yaml:2: targets.scoop.hz: 30k Hz lies outside the band") {
+	if err == nil || !strings.HasPrefix(err.Error(), "t.yaml:2: targets.scoop.hz: 30 kHz lies outside the band 20 Hz–20 kHz") {
 		t.Errorf("error %v", err)
 	}
 }

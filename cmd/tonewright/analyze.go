@@ -35,12 +35,16 @@ defines every figure.`,
 		Example: `  tonewright analyze board.yaml
   tonewright analyze board.yaml --positions 0,0.5,1 --json
   tonewright analyze stack.yaml --knob treble=0,0.5,1 --knob bass=0.5
-  tonewright analyze board.yaml --csv curves.csv`,
+  tonewright analyze board.yaml --csv curves.csv
+  tonewright analyze board.yaml --csv - --points 20 | head`,
 		Args:              exactArgs(1, "DESIGN.yaml"),
 		ValidArgsFunction: yamlFiles,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if points < 1 || points > 100000 {
 				return usageErrorf("--points %d: use a whole number from 1 to 100000", points)
+			}
+			if err := checkCSVFlags(cmd, csvPath, asJSON); err != nil {
+				return err
 			}
 			d, err := loadDesign(args[0])
 			if err != nil {
@@ -59,6 +63,10 @@ defines every figure.`,
 				if err != nil {
 					return badInput(fmt.Errorf("%s: %w", args[0], err))
 				}
+				if csvPath == stdoutName {
+					_, err := a.out.Write(data)
+					return err
+				}
 				if err := writeFile(csvPath, data, args[0]); err != nil {
 					return err
 				}
@@ -76,8 +84,8 @@ defines every figure.`,
 	c.Flags().StringVar(&kc.positions, "positions", "0,0.25,0.5,0.75,1", "positions of the swept knob (the blend knob: 0 low-pass end, 1 high-pass end)")
 	addKnobFlag(c, &kc, true)
 	c.Flags().BoolVar(&asJSON, "json", false, "print the analysis as JSON")
-	c.Flags().StringVar(&csvPath, "csv", "", "write the curves (frequency, then magnitude dB and phase ° per position) to `FILE`")
-	c.Flags().IntVar(&points, "points", 100, "points per decade in the --csv file")
+	c.Flags().StringVar(&csvPath, "csv", "", "write the curves (frequency, then magnitude dB and phase ° per position) to `FILE` (- for standard output, instead of the table)")
+	c.Flags().IntVar(&points, "points", 100, "points per decade in the --csv output (needs --csv)")
 	return c
 }
 
@@ -152,7 +160,7 @@ func writeAnalysis(w io.Writer, d *networks.Design, an *networks.Analysis) {
 	fmt.Fprintln(tw, strings.Join(head, "\t")+"\t")
 	opt := func(v *float64) string {
 		if v == nil {
-			return "–"
+			return "—"
 		}
 		return hz(*v)
 	}
@@ -176,6 +184,8 @@ func writeAnalysis(w io.Writer, d *networks.Design, an *networks.Analysis) {
 		fmt.Fprintln(tw, strings.Join(row, "\t")+"\t")
 	}
 	tw.Flush()
+	fmt.Fprintln(w, "\ndepth: the scoop's level minus the mean of its two shoulders (negative: a dip);")
+	fmt.Fprintln(w, "balance: the upper shoulder minus the lower (positive: brighter, negative: darker).")
 	fmt.Fprintln(w)
 	at := "knobs as designed"
 	if an.Blend {
@@ -184,7 +194,7 @@ func writeAnalysis(w io.Writer, d *networks.Design, an *networks.Analysis) {
 		if an.CornerHz != nil {
 			corner = hz(*an.CornerHz)
 		}
-		fmt.Fprintf(w, "output corner (knob 1, −3 dB):       %s\n", corner)
+		fmt.Fprintf(w, "output corner (knob 1, -3 dB):       %s\n", corner)
 	} else if l := an.ImpedanceKnobs.Label(d.KnobNames()); l != "" {
 		at = l
 	}
@@ -219,4 +229,20 @@ func curvesCSV(d *networks.Design, ss []networks.Setting, perDecade int) ([]byte
 		b.WriteString("\n")
 	}
 	return b.Bytes(), nil
+}
+
+// stdoutName is the file name that means standard output, as for most
+// tools.
+const stdoutName = "-"
+
+// checkCSVFlags refuses --points without --csv (it would do nothing) and
+// --csv - with --json (both would go to standard output).
+func checkCSVFlags(cmd *cobra.Command, csvPath string, asJSON bool) error {
+	if cmd.Flags().Changed("points") && csvPath == "" {
+		return usageErrorf("--points sets the density of the --csv output: give --csv FILE (or --csv - for standard output) too")
+	}
+	if csvPath == stdoutName && asJSON {
+		return usageErrorf("--csv - and --json both write to standard output: give --csv a file name, or leave out --json")
+	}
+	return nil
 }

@@ -258,7 +258,7 @@ func TestBadInput(t *testing.T) {
 		{[]string{"analyze", demoFile, "--csv", dir}, "directory"},
 		{[]string{"analyze", demoFile, "--csv", demoFile}, "input file"},
 		{[]string{"analyze", demoFile, "--csv", filepath.Join(dir, "no-such-dir", "c.csv")}, "does not exist"},
-		{[]string{"synth", "--scoop-hz", "700", "--depth", "-8", "--corner", "10nF"}, "a frequency takes no unit"},
+		{[]string{"synth", "--scoop-hz", "700", "--depth", "-8", "--corner", "10nF"}, "this flag takes a value in Hz (or no unit)"},
 		{[]string{"synth", "--scoop-hz", "700", "--depth", "-8", "--corner", "9k", "--source", "10nF"}, "--source"},
 		{[]string{"sweep", exampleFile, "--load", "10nF"}, "in F"},
 		{[]string{"snap", "4x7"}, `"4x7"`},

@@ -119,7 +119,7 @@ func runDemo(a *app, dir string) error {
 			return err
 		}
 	}
-	if err := plotSynth(res, path("curves.png")); err != nil {
+	if err := plotSynth(res, nil, path("curves.png")); err != nil {
 		return err
 	}
 	phase := &bode{Title: designTitle(d), Caption: describeDesign(d), Range: d.Band, Curves: designCurves(d, atSwept(d, networks.DefaultPositions...), true), Phase: true}

@@ -7,21 +7,12 @@ import (
 	"strings"
 
 	"tonewright/eseries"
+	"tonewright/networks"
 )
 
 // withUnit prints v in the short engineering form with a space before the
 // prefixed unit: 4.98 kHz, 6.8 kΩ, 470 pF.
-func withUnit(v float64, sig int, unit string) string {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return fmt.Sprint(v)
-	}
-	s := eseries.FormatSig(v, sig)
-	k := len(s)
-	for k > 0 && !(s[k-1] >= '0' && s[k-1] <= '9') {
-		k--
-	}
-	return s[:k] + " " + s[k:] + unit
-}
+func withUnit(v float64, sig int, unit string) string { return eseries.WithUnit(v, sig, unit) }
 
 func hz(v float64) string  { return withUnit(v, 3, "Hz") }
 func ohm(v float64) string { return withUnit(v, 3, "Ω") }
@@ -35,19 +26,25 @@ func db(v float64) string {
 }
 
 // flagValue reads one value given with --flag. A unit, if written, must be
-// want: "Ω" or "F"; "Hz" (for frequencies) takes no unit.
+// want: "Ω", "F" or "Hz".
 func flagValue(flag, s, want string) (float64, error) {
 	v, unit, err := eseries.ParseUnit(strings.TrimSpace(s))
 	if err != nil {
 		return 0, usageErrorf("--%s: %v", flag, err)
 	}
 	if unit != "" && unit != want {
-		if want == "Hz" {
-			return 0, usageErrorf("--%s %q is in %s: a frequency takes no unit here, e.g. 5k", flag, s, unit)
-		}
 		return 0, usageErrorf("--%s %q is in %s: this flag takes a value in %s (or no unit)", flag, s, unit, want)
 	}
 	return v, nil
+}
+
+// checkFlagRange refuses a resistance or capacitance given with --flag
+// (as s) outside the range the design file accepts for a part.
+func checkFlagRange(flag, s string, v float64, unit string) error {
+	if err := networks.CheckRange(v, unit); err != nil {
+		return usageErrorf("--%s %s: %v", flag, s, err)
+	}
+	return nil
 }
 
 // unitOfFlag is the unit the list flags' values are in.
@@ -64,6 +61,12 @@ func parseList(flag, s string) ([]float64, error) {
 		}
 		v, err := flagValue(flag, f, unitOfFlag[flag])
 		if err != nil {
+			return nil, err
+		}
+		if !(v > 0) {
+			return nil, usageErrorf("--%s %s: values are positive, e.g. 100,1k,4.7k", flag, f)
+		}
+		if err := checkFlagRange(flag, f, v, unitOfFlag[flag]); err != nil {
 			return nil, err
 		}
 		out = append(out, v)

@@ -6,10 +6,16 @@ import (
 	"image/color"
 	"math"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
+	"gonum.org/v1/plot/palette"
+	"gonum.org/v1/plot/palette/moreland"
 	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
@@ -23,10 +29,19 @@ type curve struct {
 	Label string
 	Hz    []float64
 	DB    []float64
-	Deg   []float64 // phase; may be nil
-	Marks []point   // drawn as open circles in the curve's colour
-	Dash  bool
-	Color color.Color // nil: the next colour of the palette
+	Deg   []float64   // phase; may be nil
+	Marks []point     // drawn as open circles in the curve's colour
+	Dash  bool        // the reference style: a plain dash (the design as it is)
+	Color color.Color // nil: the palette's, or the colour map's for a family member
+
+	// Family curves are members of an ordered family (knob positions,
+	// swept values): Order places the curve on the family's colour scale.
+	// Style picks a dash pattern and marker for a second dimension (the
+	// loads of a sweep of sources and loads); StyleLabel names it.
+	Family     bool
+	Order      float64
+	Style      int
+	StyleLabel string
 }
 
 // point is a marked spot on a plot.
@@ -47,6 +62,14 @@ type target struct {
 	DB    float64
 }
 
+// colorScale is what the colour bar of an ordered family shows: its label,
+// the range of the curves' Order and where it is labelled.
+type colorScale struct {
+	Label    string
+	Min, Max float64
+	Ticks    []plot.Tick
+}
+
 // bode describes a magnitude plot with an optional phase panel below it.
 type bode struct {
 	Title   string
@@ -56,10 +79,19 @@ type bode struct {
 	Bands   []band
 	Targets []target
 	Phase   bool
+	// Scale is the family's colour scale; nil: the blend knob's, from the
+	// family curves' Order.
+	Scale *colorScale
 }
 
-// curveColors runs from warm (the low-pass end of the blend knob) to cool
-// (the high-pass end); chosen for this tool, readable on white.
+// maxLegendFamily is the largest family drawn with a legend entry per
+// curve; a larger one is coloured along the colour map with a colour bar.
+const maxLegendFamily = 8
+
+// curveColors are the palette of plots with a legend: eight colours that
+// are told apart on white, running from warm (the low-pass end of the
+// blend knob) to cool (the high-pass end); chosen for this tool. A plot
+// never needs more: a larger family takes the colour map.
 var curveColors = []color.RGBA{
 	{176, 58, 46, 255},  // brick red
 	{211, 132, 24, 255}, // amber
@@ -71,18 +103,134 @@ var curveColors = []color.RGBA{
 	{20, 150, 150, 255}, // teal
 }
 
+// colorFor is the palette colour of the i-th of n curves: a few curves
+// are spread across the warm-to-cool run, more take the colours in turn.
 func colorFor(i, n int) color.RGBA {
-	if n <= len(curveColors) && n > 1 && n <= 5 {
-		// Spread a few curves across the warm-to-cool run.
+	if n > 1 && n <= 5 {
 		return curveColors[int(math.Round(float64(i)*4/float64(n-1)))]
 	}
 	return curveColors[i%len(curveColors)]
 }
 
-// freqTicks labels a log frequency axis at 1-2-5 steps: 20, 50, 100, … 20k.
+// familyMap is the colour map of large families: the perceptually uniform
+// sequential map of Kindlmann, Reinhard and Creem (2002, luminance-matched;
+// gonum's moreland.Kindlmann), used from dark violet to light green: its
+// black and white ends would vanish into the axes and the background.
+type familyMap struct {
+	palette.ColorMap
+	lo, hi float64 // the scale's range
+}
+
+// The part of the Kindlmann map used, as fractions of its luminance run.
+const mapFrom, mapTo = 0.12, 0.76
+
+func newFamilyMap(s *colorScale) *familyMap {
+	base := moreland.Kindlmann()
+	base.SetMin(0)
+	base.SetMax(1)
+	return &familyMap{ColorMap: base, lo: s.Min, hi: s.Max}
+}
+
+func (m *familyMap) At(v float64) (color.Color, error) {
+	t := 0.5
+	if m.hi > m.lo {
+		t = math.Max(0, math.Min(1, (v-m.lo)/(m.hi-m.lo)))
+	}
+	return m.ColorMap.At(mapFrom + (mapTo-mapFrom)*t)
+}
+func (m *familyMap) Min() float64     { return m.lo }
+func (m *familyMap) Max() float64     { return m.hi }
+func (m *familyMap) SetMin(v float64) { m.lo = v }
+func (m *familyMap) SetMax(v float64) { m.hi = v }
+func (m *familyMap) color(v float64) color.Color {
+	c, err := m.At(v)
+	if err != nil {
+		return color.Black
+	}
+	return c
+}
+
+// Line styles. The reference dash (the design as it is, the median) is a
+// plain dash that no family style uses; family styles combine a pattern
+// with a marker, so that up to 24 second-dimension values differ.
+var (
+	refDash       = []vg.Length{vg.Points(9), vg.Points(4)}
+	styleDashes   = [][]vg.Length{nil, {vg.Points(1.5), vg.Points(2.5)}, {vg.Points(7), vg.Points(2.5), vg.Points(1.5), vg.Points(2.5)}, {vg.Points(7), vg.Points(2.5), vg.Points(1.5), vg.Points(2.5), vg.Points(1.5), vg.Points(2.5)}}
+	styleGlyphs   = []draw.GlyphDrawer{nil, draw.CircleGlyph{}, draw.SquareGlyph{}, draw.TriangleGlyph{}, draw.PlusGlyph{}, draw.CrossGlyph{}}
+	markerEvery   = 30 // grid points between markers (the grid has 120 a decade)
+	maxRingLabels = maxLegendFamily
+)
+
+// curveLook is how one curve is drawn.
+type curveLook struct {
+	color  color.Color
+	dashes []vg.Length
+	glyph  draw.GlyphDrawer
+}
+
+func lookOf(c curve, col color.Color) curveLook {
+	l := curveLook{color: col}
+	if c.Dash {
+		l.dashes = refDash
+		return l
+	}
+	l.dashes = styleDashes[c.Style%len(styleDashes)]
+	l.glyph = styleGlyphs[(c.Style/len(styleDashes))%len(styleGlyphs)]
+	return l
+}
+
+// addCurve draws xs, ys in the look, markers spaced along it.
+func addCurve(p *plot.Plot, pts plotter.XYs, look curveLook, width vg.Length, phase int) (plot.Thumbnailer, error) {
+	l, err := plotter.NewLine(pts)
+	if err != nil {
+		return nil, err
+	}
+	l.Color, l.Width, l.Dashes = look.color, width, look.dashes
+	p.Add(l)
+	if look.glyph == nil {
+		return l, nil
+	}
+	var ms plotter.XYs
+	for i := phase % markerEvery; i < len(pts); i += markerEvery {
+		ms = append(ms, pts[i])
+	}
+	s, err := plotter.NewScatter(ms)
+	if err != nil {
+		return nil, err
+	}
+	s.GlyphStyle = draw.GlyphStyle{Color: look.color, Radius: vg.Points(3), Shape: look.glyph}
+	p.Add(s)
+	return lineAndGlyph{l, s}, nil
+}
+
+// lineAndGlyph draws a legend thumbnail with the line and its marker.
+type lineAndGlyph struct {
+	l *plotter.Line
+	s *plotter.Scatter
+}
+
+func (t lineAndGlyph) Thumbnail(c *draw.Canvas) {
+	t.l.Thumbnail(c)
+	t.s.Thumbnail(c)
+}
+
+// freqTicks labels a log frequency axis so that the labels neither run
+// together nor leave the band unlabelled: at 1-2-5 steps over up to four
+// decades, at the decades only over more, and at every step (with the
+// band's edges) over less than about a decade.
 type freqTicks struct{}
 
 func (freqTicks) Ticks(min, max float64) []plot.Tick {
+	decades := math.Log10(max / min)
+	labelled := func(m int) bool {
+		switch {
+		case decades > 4:
+			return m == 1
+		case decades > 1.3:
+			return m == 1 || m == 2 || m == 5
+		}
+		return true
+	}
 	var ts []plot.Tick
 	for d := math.Floor(math.Log10(min)); d <= math.Ceil(math.Log10(max)); d++ {
 		base := math.Pow(10, d)
@@ -92,14 +240,35 @@ func (freqTicks) Ticks(min, max float64) []plot.Tick {
 				continue
 			}
 			t := plot.Tick{Value: v}
-			if m == 1 || m == 2 || m == 5 {
-				t.Label = strings.TrimSuffix(withUnit(v, 3, ""), " ")
-				t.Label = strings.ReplaceAll(t.Label, " ", "")
+			if labelled(m) {
+				t.Label = freqLabel(v)
 			}
 			ts = append(ts, t)
 		}
 	}
+	if decades <= 1.3 {
+		// Label the band's edges unless a labelled tick is close by.
+		for _, e := range []float64{min, max} {
+			near := false
+			for _, t := range ts {
+				if t.Label != "" && math.Abs(math.Log10(t.Value/e)) < decades/12 {
+					near = true
+				}
+			}
+			if !near {
+				ts = append(ts, plot.Tick{Value: e, Label: freqLabel(e)})
+			}
+		}
+	}
 	return ts
+}
+
+// freqLabel writes a frequency tick label: 20, 500, 1k, 20k, 0.1.
+func freqLabel(v float64) string {
+	if v < 1 {
+		return strconv.FormatFloat(v, 'g', 3, 64)
+	}
+	return strings.ReplaceAll(strings.TrimSuffix(withUnit(v, 3, ""), " "), " ", "")
 }
 
 func styleAxes(p *plot.Plot) {
@@ -108,7 +277,6 @@ func styleAxes(p *plot.Plot) {
 		ax.Label.TextStyle.Font.Size = vg.Points(12)
 		ax.Tick.Label.Font.Size = vg.Points(10.5)
 	}
-	p.Legend.TextStyle.Font.Size = vg.Points(10.5)
 	grid := plotter.NewGrid()
 	grid.Vertical.Color = color.Gray{215}
 	grid.Horizontal.Color = color.Gray{215}
@@ -149,8 +317,104 @@ func checkPlotFlag(flag, path string, inputs ...string) error {
 	return nil
 }
 
+// knobScale is the colour scale of a family of blend knob positions.
+func knobScale(cs []curve) *colorScale {
+	s := &colorScale{Label: "blend knob (0 low-pass end, 1 high-pass end)", Min: math.Inf(1), Max: math.Inf(-1)}
+	var orders []float64
+	for _, c := range cs {
+		if c.Family {
+			s.Min, s.Max = math.Min(s.Min, c.Order), math.Max(s.Max, c.Order)
+			orders = append(orders, c.Order)
+		}
+	}
+	if len(orders) <= 11 {
+		for _, o := range orders {
+			s.Ticks = append(s.Ticks, plot.Tick{Value: o, Label: posLabel(o)})
+		}
+		return s
+	}
+	for _, o := range orders {
+		s.Ticks = append(s.Ticks, plot.Tick{Value: o})
+	}
+	for v := 0.0; v <= 1; v += 0.25 {
+		if v >= s.Min-1e-9 && v <= s.Max+1e-9 {
+			s.Ticks = append(s.Ticks, plot.Tick{Value: v, Label: posLabel(v)})
+		}
+	}
+	return s
+}
+
+// rankScale is the colour scale of a family of swept values, coloured by
+// their rank (even steps for the usual log-spaced sweeps): names[i] labels
+// rank i, every one when there are few, else about ten of them.
+func rankScale(label string, names []string) *colorScale {
+	s := &colorScale{Label: label, Min: -0.5, Max: float64(len(names)) - 0.5}
+	step := max(1, (len(names)+9)/10)
+	for i, n := range names {
+		t := plot.Tick{Value: float64(i)}
+		if i%step == 0 || (i == len(names)-1 && 2*(i%step) > step) {
+			t.Label = n
+		}
+		s.Ticks = append(s.Ticks, t)
+	}
+	return s
+}
+
+// usesColorMap reports whether the plot's family is large enough to be
+// coloured along the colour map, with a colour bar instead of a legend.
+func (b *bode) usesColorMap() bool {
+	n := 0
+	for _, c := range b.Curves {
+		if c.Family {
+			n++
+		}
+	}
+	return n > maxLegendFamily
+}
+
+// looks assigns every curve its colour, dash pattern and marker: a fixed
+// colour if it has one, the colour map's for a member of a large family,
+// else the palette's in turn; the magnitude and phase panels share them.
+func (b *bode) looks() ([]curveLook, *colorScale, *familyMap) {
+	useMap := b.usesColorMap()
+	scale := b.Scale
+	if scale == nil {
+		scale = knobScale(b.Curves)
+	}
+	cmap := newFamilyMap(scale)
+	palette := 0
+	for _, c := range b.Curves {
+		if c.Color == nil && !(useMap && c.Family) {
+			palette++
+		}
+	}
+	next := 0
+	var out []curveLook
+	for _, c := range b.Curves {
+		var col color.Color = c.Color
+		switch {
+		case col != nil:
+		case useMap && c.Family:
+			col = cmap.color(c.Order)
+		default:
+			col = colorFor(next, palette)
+			next++
+		}
+		out = append(out, lookOf(c, col))
+	}
+	return out, scale, cmap
+}
+
+// legendEntry is one line of the legend beside the plot.
+type legendEntry struct {
+	label string
+	thumb plot.Thumbnailer
+}
+
 // render draws the plot and writes it to path as PNG or SVG, chosen by the
-// extension.
+// extension. The legend stands beside the axes, on a white panel, where it
+// covers no curve; a family of more than maxLegendFamily curves is
+// coloured along the colour map and explained by a colour bar instead.
 func (b *bode) render(path string, inputs ...string) error {
 	if err := checkPlotFile(path, inputs...); err != nil {
 		return err
@@ -158,18 +422,71 @@ func (b *bode) render(path string, inputs ...string) error {
 	ext := strings.ToLower(filepath.Ext(path))
 	mag := plot.New()
 	title := b.Title
-	if b.Caption != "" {
-		title += "\n" + b.Caption
+	caption := b.Caption
+	marked := 0
+	for _, c := range b.Curves {
+		if len(c.Marks) > 0 {
+			marked++
+		}
+	}
+	useMap := b.usesColorMap()
+	// Label every ring when there are few; else an even selection, the
+	// first and last among them. A label that would overlap one already
+	// placed is left out; the caption says when any is.
+	ringStep := max(1, (marked+maxRingLabels-1)/maxRingLabels)
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, c := range b.Curves {
+		for _, v := range c.DB {
+			if !math.IsNaN(v) && !math.IsInf(v, 0) {
+				lo, hi = math.Min(lo, v), math.Max(hi, v)
+			}
+		}
+	}
+	decades := math.Log10(b.Range.To / b.Range.From)
+	var placed []point
+	// place finds where m's label goes: below the ring, or stacked one or
+	// two lines further down; a place is taken when it would cover
+	// another label or another ring. ok is false when all are taken.
+	// Sizes are in axis units: a label is about 7 % of the axes wide and
+	// 3.5 % high.
+	lineH := 0.035 * (hi - lo)
+	halfW := 0.035 * decades
+	var ringsAt []point
+	for _, c := range b.Curves {
+		ringsAt = append(ringsAt, c.Marks...)
+	}
+	place := func(m point) (at point, ok bool) {
+		for k := 0; k < 3; k++ {
+			at = point{m.Hz, m.DB - float64(k)*lineH}
+			top, bottom := at.DB-0.15*lineH, at.DB-1.45*lineH
+			clear := true
+			for _, p := range placed {
+				if math.Abs(math.Log10(at.Hz/p.Hz)) < 2*halfW && math.Abs(at.DB-p.DB) < 1.1*lineH {
+					clear = false
+				}
+			}
+			for _, r := range ringsAt {
+				if r != m && math.Abs(math.Log10(r.Hz/at.Hz)) < halfW+0.01*decades && r.DB < top && r.DB > bottom {
+					clear = false
+				}
+			}
+			if clear {
+				placed = append(placed, at)
+				return at, true
+			}
+		}
+		return at, false
+	}
+	skipped := ringStep > 1
+	if caption != "" {
+		title += "\n" + caption
 	}
 	mag.Title.Text = title
 	styleAxes(mag)
 	freqAxis(mag, b.Range)
 	mag.Y.Label.Text = "gain (dB)"
 	mag.Y.Tick.Marker = dbTicks{}
-	mag.Legend.Top = false
-	mag.Legend.Left = true
-	mag.Legend.XOffs = vg.Points(8)
-	mag.Legend.YOffs = vg.Points(8)
+	var legend []legendEntry
 	for i, bd := range b.Bands {
 		poly := append(xys(bd.Hz, bd.Hi), reversed(xys(bd.Hz, bd.Lo))...)
 		pg, err := plotter.NewPolygon(poly)
@@ -181,7 +498,7 @@ func (b *bode) render(path string, inputs ...string) error {
 		pg.LineStyle.Width = 0
 		mag.Add(pg)
 		if bd.Label != "" {
-			mag.Legend.Add(bd.Label, pg)
+			legend = append(legend, legendEntry{bd.Label, pg})
 		}
 	}
 	var pha *plot.Plot
@@ -192,41 +509,54 @@ func (b *bode) render(path string, inputs ...string) error {
 		pha.Y.Label.Text = "phase (°)"
 		pha.Y.Tick.Marker = degTicks{}
 	}
-	palette := 0
-	for _, c := range b.Curves {
-		if c.Color == nil {
-			palette++
-		}
-	}
-	next := 0
-	for _, c := range b.Curves {
-		var col color.Color = c.Color
-		var cycle int
-		if col == nil {
-			col, cycle = colorFor(next, palette), next/len(curveColors)
-			next++
-		}
-		l, err := plotter.NewLine(xys(c.Hz, c.DB))
+	looks, scale, cmap := b.looks()
+	styles := map[int]bool{}
+	var styleEntries []legendEntry
+	var rings plotter.XYLabels
+	var ringStyles []text.Style
+	ring := 0
+	for i, c := range b.Curves {
+		look := looks[i]
+		col := look.color
+		thumb, err := addCurve(mag, xys(c.Hz, c.DB), look, vg.Points(2), i*7)
 		if err != nil {
 			return err
 		}
-		l.Color, l.Width = col, vg.Points(2)
-		switch {
-		case c.Dash:
-			l.Dashes = []vg.Length{vg.Points(6), vg.Points(3)}
-		case cycle > 0:
-			// Past the palette's length the colours come round again,
-			// dotted.
-			l.Dashes = []vg.Length{vg.Points(2), vg.Points(2.5)}
+		if c.Label != "" && !(useMap && c.Family) {
+			legend = append(legend, legendEntry{c.Label, thumb})
 		}
-		mag.Add(l)
-		if c.Label != "" {
-			mag.Legend.Add(c.Label, l)
+		if useMap && c.Family && c.StyleLabel != "" && !styles[c.Style] {
+			// One legend entry per second-dimension style, in grey.
+			styles[c.Style] = true
+			grey := lookOf(c, color.Gray{70})
+			l, _ := plotter.NewLine(plotter.XYs{{X: 0, Y: 0}, {X: 1, Y: 0}})
+			l.Color, l.Width, l.Dashes = grey.color, vg.Points(2), grey.dashes
+			var th plot.Thumbnailer = l
+			if grey.glyph != nil {
+				s, _ := plotter.NewScatter(plotter.XYs{{X: 0, Y: 0}})
+				s.GlyphStyle = draw.GlyphStyle{Color: grey.color, Radius: vg.Points(3), Shape: grey.glyph}
+				th = lineAndGlyph{l, s}
+			}
+			styleEntries = append(styleEntries, legendEntry{c.StyleLabel, th})
 		}
 		if len(c.Marks) > 0 {
 			var pts plotter.XYs
+			label := ring%ringStep == 0 || ring == marked-1
+			ring++
 			for _, m := range c.Marks {
 				pts = append(pts, plotter.XY{X: m.Hz, Y: m.DB})
+				if !label {
+					continue
+				}
+				at, ok := place(m)
+				if !ok {
+					skipped = true
+				} else {
+					rings.XYs = append(rings.XYs, plotter.XY{X: at.Hz, Y: at.DB})
+					rings.Labels = append(rings.Labels, hz(m.Hz))
+					ringStyles = append(ringStyles, text.Style{Color: col, Font: font.From(plot.DefaultFont, vg.Points(9)),
+						XAlign: draw.XCenter, YAlign: draw.YTop, Handler: plot.DefaultTextHandler})
+				}
 			}
 			s, err := plotter.NewScatter(pts)
 			if err != nil {
@@ -236,22 +566,37 @@ func (b *bode) render(path string, inputs ...string) error {
 			mag.Add(s)
 		}
 		if pha != nil && c.Deg != nil {
-			pl, err := plotter.NewLine(xys(c.Hz, c.Deg))
-			if err != nil {
+			if _, err := addCurve(pha, xys(c.Hz, c.Deg), look, vg.Points(1.6), i*7); err != nil {
 				return err
 			}
-			pl.Color, pl.Width = col, vg.Points(1.6)
-			pha.Add(pl)
 		}
 	}
-	for _, t := range b.Targets {
-		if err := addTarget(mag, t); err != nil {
+	if skipped {
+		mag.Title.Text += "\nrings: the scoops, labelled where room allows"
+	}
+	if len(rings.XYs) > 0 {
+		lb, err := plotter.NewLabels(rings)
+		if err != nil {
 			return err
 		}
+		lb.TextStyle = ringStyles
+		lb.Offset = vg.Point{Y: -vg.Points(7)}
+		mag.Add(lb)
 	}
-	w, h := vg.Length(9)*vg.Inch, vg.Length(5.6)*vg.Inch
+	legend = append(legend, styleEntries...)
+	for _, t := range b.Targets {
+		e, err := addTarget(mag, t)
+		if err != nil {
+			return err
+		}
+		if e.label != "" {
+			legend = append(legend, e)
+		}
+	}
+
+	w, h := vg.Length(10.5)*vg.Inch, vg.Length(5.8)*vg.Inch
 	if pha != nil {
-		h = vg.Length(8.4) * vg.Inch
+		h = vg.Length(8.6) * vg.Inch
 	}
 	var buf bytes.Buffer
 	var canvas vg.CanvasWriterTo
@@ -259,21 +604,131 @@ func (b *bode) render(path string, inputs ...string) error {
 	case ".png":
 		canvas = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(110), vgimg.UseBackgroundColor(color.White))}
 	default:
-		canvas = vgsvg.New(w, h)
+		canvas = vgsvg.NewWith(vgsvg.UseWH(w, h), vgsvg.EmbedFonts(true))
 	}
 	dc := draw.New(canvas)
+	lg := newSideLegend(legend)
+	side := lg.width()
+	if useMap {
+		side = max(side, vg.Points(100))
+	}
+	side += vg.Points(16)
+	main := draw.Crop(dc, 0, -side, 0, 0)
+	var magArea draw.Canvas
 	if pha == nil {
-		mag.Draw(dc)
+		mag.Draw(main)
+		magArea = main
 	} else {
 		tiles := draw.Tiles{Rows: 2, Cols: 1, PadTop: vg.Points(4), PadBottom: vg.Points(4), PadLeft: vg.Points(4), PadRight: vg.Points(10), PadY: vg.Points(10)}
-		cs := plot.Align([][]*plot.Plot{{mag}, {pha}}, tiles, dc)
+		cs := plot.Align([][]*plot.Plot{{mag}, {pha}}, tiles, main)
 		mag.Draw(cs[0][0])
 		pha.Draw(cs[1][0])
+		magArea = cs[0][0]
+	}
+	// The side column: the legend at the top of the axes (below the
+	// title), the colour bar under it.
+	titleH := mag.Title.TextStyle.Height(mag.Title.Text) + vg.Points(10)
+	top := magArea.Max.Y - titleH
+	x0 := dc.Max.X - side + vg.Points(6)
+	bottom := lg.draw(dc, x0, top)
+	if useMap {
+		cb := plot.New()
+		cb.HideX()
+		cb.Y.Label.Text = scale.Label
+		cb.Y.Label.TextStyle.Font.Size = vg.Points(10.5)
+		cb.Y.Tick.Label.Font.Size = vg.Points(9.5)
+		cb.Y.Tick.Marker = plot.ConstantTicks(scale.Ticks)
+		cb.Y.Min, cb.Y.Max = scale.Min, scale.Max
+		cb.Add(&plotter.ColorBar{ColorMap: cmap, Vertical: true})
+		area := draw.Canvas{Canvas: dc.Canvas, Rectangle: vg.Rectangle{
+			Min: vg.Point{X: x0, Y: magArea.Min.Y + vg.Points(40)},
+			Max: vg.Point{X: x0 + vg.Points(95), Y: bottom - vg.Points(14)},
+		}}
+		if area.Max.Y-area.Min.Y < vg.Points(80) {
+			area.Min.Y = area.Max.Y - vg.Points(80)
+		}
+		cb.Draw(area)
 	}
 	if _, err := canvas.WriteTo(&buf); err != nil {
 		return fmt.Errorf("drawing %s: %w", path, err)
 	}
-	return writeFile(path, buf.Bytes(), inputs...)
+	data := buf.Bytes()
+	if ext == ".svg" {
+		data = svgFontFallback(data)
+	}
+	return writeFile(path, data, inputs...)
+}
+
+// svgFontFallback gives every font-family in an SVG a generic fallback, so
+// that a viewer that ignores the embedded font still uses one of the same
+// kind (gonum writes the bare family name).
+func svgFontFallback(svg []byte) []byte {
+	return fontFamily.ReplaceAllFunc(svg, func(m []byte) []byte {
+		name := strings.TrimSuffix(strings.TrimPrefix(string(m), "font-family:"), ";")
+		name = strings.Trim(name, `"'`)
+		generic := "serif"
+		if strings.Contains(strings.ToLower(name), "sans") {
+			generic = "sans-serif"
+		}
+		if strings.Contains(strings.ToLower(name), "mono") {
+			generic = "monospace"
+		}
+		return []byte("font-family:'" + name + "'," + generic + ";")
+	})
+}
+
+var fontFamily = regexp.MustCompile(`font-family:[^;,"]+;`)
+
+// sideLegend is the legend drawn beside the axes on a white panel.
+type sideLegend struct {
+	plot.Legend
+	entries []legendEntry
+}
+
+func newSideLegend(es []legendEntry) *sideLegend {
+	l := &sideLegend{Legend: plot.NewLegend(), entries: es}
+	l.TextStyle.Font.Size = vg.Points(10.5)
+	l.Top, l.Left = true, true
+	l.Padding = vg.Points(3)
+	for _, e := range es {
+		l.Add(e.label, e.thumb)
+	}
+	return l
+}
+
+func (l *sideLegend) width() vg.Length {
+	if len(l.entries) == 0 {
+		return 0
+	}
+	var w vg.Length
+	for _, e := range l.entries {
+		w = max(w, l.TextStyle.Width(" "+e.label))
+	}
+	return l.ThumbnailWidth + w + vg.Points(12)
+}
+
+// draw draws the legend with its top-left corner at (x, top) on a white
+// panel with a grey border, and returns the panel's bottom.
+func (l *sideLegend) draw(dc draw.Canvas, x, top vg.Length) vg.Length {
+	if len(l.entries) == 0 {
+		return top
+	}
+	pad := vg.Points(5)
+	var enth vg.Length
+	for _, e := range l.entries {
+		enth = max(enth, l.TextStyle.Rectangle(e.label).Max.Y)
+	}
+	h := vg.Length(len(l.entries))*(enth+l.Padding) - l.Padding + l.TextStyle.FontExtents().Descent
+	r := vg.Rectangle{Min: vg.Point{X: x - pad, Y: top - h - 2*pad}, Max: vg.Point{X: x + l.width() - pad, Y: top}}
+	dc.SetColor(color.White)
+	dc.Fill(r.Path())
+	dc.SetLineStyle(draw.LineStyle{Color: color.Gray{150}, Width: vg.Points(0.8)})
+	dc.Stroke(r.Path())
+	l.Legend.Draw(draw.Canvas{Canvas: dc.Canvas, Rectangle: vg.Rectangle{
+		Min: vg.Point{X: x, Y: r.Min.Y + pad},
+		Max: vg.Point{X: r.Max.X, Y: top - pad},
+	}})
+	return r.Min.Y
 }
 
 func reversed(p plotter.XYs) plotter.XYs {
@@ -285,32 +740,26 @@ func reversed(p plotter.XYs) plotter.XYs {
 }
 
 // addTarget draws a target: a black cross at a (frequency, level) point, or
-// a dashed vertical line at a frequency.
-func addTarget(p *plot.Plot, t target) error {
+// a dotted vertical line at a frequency; it returns the legend entry.
+func addTarget(p *plot.Plot, t target) (legendEntry, error) {
 	if math.IsNaN(t.DB) {
 		l, err := plotter.NewLine(plotter.XYs{{X: t.Hz, Y: p.Y.Min}, {X: t.Hz, Y: p.Y.Max}})
 		if err != nil {
-			return err
+			return legendEntry{}, err
 		}
 		l.Color = color.Gray{40}
-		l.Width = vg.Points(1.2)
-		l.Dashes = []vg.Length{vg.Points(4), vg.Points(3)}
+		l.Width = vg.Points(1.4)
+		l.Dashes = []vg.Length{vg.Points(2), vg.Points(3)}
 		p.Add(l)
-		if t.Label != "" {
-			p.Legend.Add(t.Label, l)
-		}
-		return nil
+		return legendEntry{t.Label, l}, nil
 	}
 	s, err := plotter.NewScatter(plotter.XYs{{X: t.Hz, Y: t.DB}})
 	if err != nil {
-		return err
+		return legendEntry{}, err
 	}
 	s.GlyphStyle = draw.GlyphStyle{Color: color.Black, Radius: vg.Points(6), Shape: draw.CrossGlyph{}}
 	p.Add(s)
-	if t.Label != "" {
-		p.Legend.Add(t.Label, s)
-	}
-	return nil
+	return legendEntry{t.Label, s}, nil
 }
 
 // designCurves computes the design's curves at the knob settings, each
@@ -320,12 +769,12 @@ func designCurves(d *networks.Design, ss []networks.Setting, withPhase bool) []c
 	freqs := networks.LogGrid(d.Band.From, d.Band.To, 120)
 	varied := d.Varied(ss)
 	var cs []curve
-	for _, s := range ss {
+	for i, s := range ss {
 		k, err := d.Compile(s)
 		if err != nil {
 			continue // a valid design always compiles; nothing to draw otherwise
 		}
-		c := curve{Label: settingLabel(s, varied), Hz: freqs, DB: make([]float64, len(freqs))}
+		c := curve{Label: settingLabel(s, varied), Hz: freqs, DB: make([]float64, len(freqs)), Family: true, Order: familyOrder(s, varied, i)}
 		if withPhase {
 			c.Deg = make([]float64, len(freqs))
 		}

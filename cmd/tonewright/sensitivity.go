@@ -24,7 +24,7 @@ func newSensitivityCmd(a *app) *cobra.Command {
 reports how far each metric moves per percent change of the part (central
 differences with a step of 0.1 % in the logarithm of the value):
 
-  scoop frequency and corner: percent per percent (−1 means 1 % more of the
+  scoop frequency and corner: percent per percent (-1 means 1 % more of the
     part lowers the frequency by 1 %);
   depth, balance and gain at 1 kHz: dB per percent.
 

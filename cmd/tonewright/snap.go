@@ -6,6 +6,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"tonewright/eseries"
+	"tonewright/networks"
 )
 
 func init() { register(newSnapCmd) }
@@ -31,7 +32,10 @@ func newSnapCmd(a *app) *cobra.Command {
 		Short: "Fit a value to a preferred-number series: nearest, below and above",
 		Long: `snap finds the members of an IEC 60063 series nearest to a value (in log
 space), at or below it, and at or above it, with the errors in percent.
-VALUE is written as the trade writes it: 4700, 4.7k, 4k7, 2n2, 100nF, R47.`,
+VALUE is written as the trade writes it: 4700, 4.7k, 4k7, 2n2, 100nF, R47.
+It must lie in the range the design file accepts for a part: 1 mΩ to 1 TΩ
+for a resistance (a value written in Ω), 1 fF to 1 F for a capacitance (in
+F), and 1 fF to 1 TΩ for a value without a unit.`,
 		Example: `  tonewright snap 5k
   tonewright snap 3n3 --series E6
   tonewright snap 12.3k --series E96 --json`,
@@ -41,12 +45,9 @@ VALUE is written as the trade writes it: 4700, 4.7k, 4k7, 2n2, 100nF, R47.`,
 			if err != nil {
 				return usageErrorf("--series: %v", err)
 			}
-			v, err := eseries.Parse(args[0])
+			v, err := snapValue(args[0])
 			if err != nil {
-				return badInput(err)
-			}
-			if !(v > 0) {
-				return usageErrorf("value %q must be positive", args[0])
+				return err
 			}
 			sn, err := eseries.SnapTo(s, v)
 			if err != nil {
@@ -79,4 +80,29 @@ VALUE is written as the trade writes it: 4700, 4.7k, 4k7, 2n2, 100nF, R47.`,
 	c.Flags().BoolVar(&asJSON, "json", false, "print the result as JSON")
 	_ = c.RegisterFlagCompletionFunc("series", cobra.FixedCompletions(eseries.SeriesNames(), cobra.ShellCompDirectiveNoFileComp))
 	return c
+}
+
+// snapValue reads snap's VALUE: a positive part value within the design
+// file's ranges for its unit (either range when it has none).
+func snapValue(s string) (float64, error) {
+	v, unit, err := eseries.ParseUnit(s)
+	if err != nil {
+		return 0, badInput(err)
+	}
+	if !(v > 0) {
+		return 0, usageErrorf("value %q: values are positive, e.g. 4.7k", s)
+	}
+	switch unit {
+	case "Hz":
+		return 0, usageErrorf("value %q is a frequency: snap fits part values, in Ω, F or without a unit", s)
+	case "Ω", "F":
+		if err := networks.CheckRange(v, unit); err != nil {
+			return 0, usageErrorf("value %q: %v", s, err)
+		}
+	default:
+		if v < networks.MinFarads || v > networks.MaxOhms {
+			return 0, usageErrorf("value %q is outside the ranges a part may have (1 mΩ to 1 TΩ for resistances, 1 fF to 1 F for capacitances): is the prefix right?", s)
+		}
+	}
+	return v, nil
 }

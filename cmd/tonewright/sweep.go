@@ -5,6 +5,7 @@ import (
 	"image/color"
 	"io"
 	"math"
+	"slices"
 	"strings"
 	"text/tabwriter"
 
@@ -31,8 +32,8 @@ A source value replaces source.impedance (the coupling capacitor stays); a
 load value replaces load.r (the load capacitance stays). Give --source,
 --load or both; the one left out stays as the design has it.
 
-Shifts: frequencies in percent, 100·(f/f_design − 1); levels in dB,
-value − value_design.`,
+Shifts: frequencies in percent, 100·(f/f_design - 1); levels in dB,
+value - value_design.`,
 		Example: `  tonewright sweep board.yaml --source 100,1k,4.7k,22k
   tonewright sweep board.yaml --source 1k,10k --load 100k,1M,open --blend 0.3
   tonewright sweep board.yaml --load 250k,1M --plot loads.png --json`,
@@ -116,6 +117,11 @@ func parseImpedances(flag, s string, load bool) ([]float64, error) {
 		if v < 0 || (load && v == 0) {
 			return nil, usageErrorf("--%s: %q is not a usable %s: give %s", flag, f, what, forms)
 		}
+		if v > 0 {
+			if err := checkFlagRange(flag, f, v, "Ω"); err != nil {
+				return nil, err
+			}
+		}
 		out = append(out, v)
 	}
 	if len(out) == 0 {
@@ -135,7 +141,7 @@ func loadLabel(r float64) string {
 // shiftDB prints a level shift in dB with two decimals and a sign.
 func shiftDB(v *float64) string {
 	if v == nil {
-		return "–"
+		return "—"
 	}
 	x := *v
 	if math.Abs(x) < 0.005 {
@@ -147,7 +153,7 @@ func shiftDB(v *float64) string {
 // shiftPct prints a frequency shift in percent with a sign.
 func shiftPct(v *float64) string {
 	if v == nil {
-		return "–"
+		return "—"
 	}
 	x := *v
 	if math.Abs(x) < 0.05 {
@@ -169,17 +175,17 @@ func writeSweep(w io.Writer, d *networks.Design, res *networks.SweepResult) {
 		if m.Scoop != nil {
 			fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t", hz(m.Scoop.Hz), shiftPct(r.Shift.ScoopHzPct), db(m.Scoop.DepthDB), shiftDB(r.Shift.DepthDB), db(m.Scoop.BalanceDB), shiftDB(r.Shift.BalanceDB))
 		} else {
-			fmt.Fprint(tw, "no scoop\t–\t\t–\t\t–\t")
+			fmt.Fprint(tw, "no scoop\t—\t\t—\t\t—\t")
 		}
 		if m.CornerHz != nil {
 			fmt.Fprintf(tw, "%s\t%s\t\n", hz(*m.CornerHz), shiftPct(r.Shift.CornerPct))
 		} else {
-			fmt.Fprint(tw, "none\t–\t\n")
+			fmt.Fprint(tw, "none\t—\t\n")
 		}
 	}
 	tw.Flush()
-	fmt.Fprintln(w, "\nΔ: shift from the design's own values, levels in dB, frequencies in % (100·(f/f_design − 1));")
-	fmt.Fprintf(w, "–: the design or the row has no scoop (or no corner). Corner: %s, −3 dB.\n", cornerWhere(d))
+	fmt.Fprintln(w, "\nΔ: shift from the design's own values, levels in dB, frequencies in % (100·(f/f_design - 1));")
+	fmt.Fprintf(w, "—: the design or the row has no scoop (or no corner). Corner: %s, -3 dB.\n", cornerWhere(d))
 }
 
 // metricsLine summarises study metrics on one line.
@@ -220,17 +226,52 @@ func sweepPlot(d *networks.Design, res *networks.SweepResult, bySource, byLoad b
 	}
 	b := &bode{
 		Title:   designTitle(d) + ": " + studyLabel(d, res.Knobs),
-		Caption: "sweep of the " + what + "; dashed: the design as it is",
+		Caption: "sweep of the " + what + "; dashed black: the design as it is",
 		Range:   d.Band,
+	}
+	// The curves are a family ordered by the swept value: coloured by the
+	// dimension with more values (sources on a tie), styled by the other.
+	var srcs, loads []float64
+	for _, r := range res.Rows {
+		if !slices.Contains(srcs, r.SourceOhm) {
+			srcs = append(srcs, r.SourceOhm)
+		}
+		if !slices.Contains(loads, r.LoadOhm) {
+			loads = append(loads, r.LoadOhm)
+		}
+	}
+	bySourceColour := bySource && (!byLoad || len(srcs) >= len(loads))
+	var names []string
+	if bySourceColour {
+		for _, s := range srcs {
+			names = append(names, ohm(s))
+		}
+		b.Scale = rankScale("source impedance", names)
+	} else {
+		for _, l := range loads {
+			names = append(names, loadLabel(l))
+		}
+		b.Scale = rankScale("load resistance", names)
 	}
 	for _, r := range res.Rows {
 		c := designCurves(networks.Variant(d, r.SourceOhm, r.LoadOhm), []networks.Setting{res.Knobs}, false)[0]
 		c.Label = label(r.SourceOhm, r.LoadOhm)
+		si, li := slices.Index(srcs, r.SourceOhm), slices.Index(loads, r.LoadOhm)
+		switch {
+		case bySourceColour && byLoad:
+			c.Order, c.Style, c.StyleLabel = float64(si), li, "load "+loadLabel(r.LoadOhm)
+		case bySourceColour:
+			c.Order = float64(si)
+		case bySource:
+			c.Order, c.Style, c.StyleLabel = float64(li), si, "source "+ohm(r.SourceOhm)
+		default:
+			c.Order = float64(li)
+		}
 		b.Curves = append(b.Curves, c)
 	}
 	own := designCurves(d, []networks.Setting{res.Knobs}, false)[0]
 	own.Label = "design: " + label(d.Source.Impedance, d.Load.R)
-	own.Dash, own.Color = true, color.Black
+	own.Dash, own.Color, own.Family = true, color.Black, false
 	b.Curves = append(b.Curves, own)
 	return b
 }

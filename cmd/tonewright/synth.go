@@ -11,6 +11,8 @@ import (
 	"text/tabwriter"
 	"time"
 
+	"image/color"
+
 	"github.com/schollz/progressbar/v3"
 	"github.com/spf13/cobra"
 
@@ -72,7 +74,7 @@ design is still reported and written).`,
 	fl.StringVar(&f.depth, "depth", "", "scoop depth below the shoulders in dB, negative, e.g. -10")
 	fl.StringVar(&f.balance, "balance", "", "upper shoulder minus lower shoulder in dB (default 0; re-voicing: kept)")
 	fl.StringVar(&f.at, "at", "", "blend knob position the scoop is measured at, 0..1 (default 0.5)")
-	fl.StringVar(&f.corner, "corner", "", "output corner at knob 1 (−3 dB), e.g. 5k")
+	fl.StringVar(&f.corner, "corner", "", "output corner at knob 1 (-3 dB), e.g. 5k")
 	fl.StringVar(&f.source, "source", "", "output impedance of the driving stage, e.g. 6.8k")
 	fl.StringVar(&f.load, "load", "", "load resistance, e.g. 1M, or open")
 	fl.StringVar(&f.loadC, "load-c", "", "load capacitance (cable), e.g. 470p")
@@ -126,6 +128,9 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 	if f.stock != "" {
 		inputs = append(inputs, f.stock)
 	}
+	for _, n := range stockWins(cmd, p) {
+		fmt.Fprintf(a.err, "tonewright: note: %s\n", n)
+	}
 	// Refuse bad output names before the search, not after it.
 	if f.out != "" {
 		if err := checkOutput(f.out, inputs...); err != nil {
@@ -162,7 +167,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		}
 	}
 	if f.plot != "" {
-		if err := plotSynth(res, f.plot, inputs...); err != nil {
+		if err := plotSynth(res, p.From, f.plot, inputs...); err != nil {
 			return err
 		}
 	}
@@ -278,6 +283,11 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 		if v < 0 {
 			return usageErrorf("--source %q: give the driving stage's output impedance, e.g. 6.8k or 0", f.source)
 		}
+		if v > 0 {
+			if err := checkFlagRange("source", f.source, v, "Ω"); err != nil {
+				return err
+			}
+		}
 		s := networks.Source{}
 		if p.Source != nil {
 			s = *p.Source
@@ -301,6 +311,8 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 				return err
 			} else if !(l.R > 0) {
 				return usageErrorf("--load %q: give the load resistance, e.g. 1M, or open", f.load)
+			} else if err := checkFlagRange("load", f.load, l.R, "Ω"); err != nil {
+				return err
 			}
 		}
 		if set("load-c") {
@@ -308,6 +320,10 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 				return err
 			} else if l.C < 0 {
 				return usageErrorf("--load-c %q: give the load capacitance, e.g. 470p, or 0", f.loadC)
+			} else if l.C > 0 {
+				if err := checkFlagRange("load-c", f.loadC, l.C, "F"); err != nil {
+					return err
+				}
 			}
 		}
 		p.Load = &l
@@ -359,6 +375,30 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 		p.MaxChanges = f.maxChanges
 	}
 	return nil
+}
+
+// stockWins says, for each kind of part that both the stock file and a
+// series or list (flag or targets file) give, that the stock file wins.
+func stockWins(cmd *cobra.Command, p *synth.Problem) []string {
+	st := p.Parts.Stock
+	if st == nil {
+		return nil
+	}
+	var notes []string
+	for _, k := range []struct {
+		kind  string
+		stock []float64
+		given bool
+	}{
+		{"resistors", st.Resistors, cmd.Flags().Changed("resistors") || p.Parts.Resistors != nil},
+		{"capacitors", st.Capacitors, cmd.Flags().Changed("capacitors") || p.Parts.Capacitors != nil},
+		{"pots", st.Pots, cmd.Flags().Changed("pots") || p.Parts.Pots != nil},
+	} {
+		if len(k.stock) > 0 && k.given {
+			notes = append(notes, fmt.Sprintf("the stock file %s lists %s: only those are used, not the %s series or list given (the stock file wins)", st.File, k.kind, k.kind))
+		}
+	}
+	return notes
 }
 
 var flagExample = map[string]string{
@@ -659,8 +699,15 @@ func heldParts(res *synth.Result) []string {
 
 // plotSynth draws the chosen design at the standard knob positions with the
 // targets: the scoop as a cross at the wanted frequency and level on the
-// measured curve's shoulders, the corner as a dashed line.
-func plotSynth(res *synth.Result, path string, inputs ...string) error {
+// measured curve's shoulders, the corner as a dotted line. A re-voicing
+// (original not nil) adds the original design's curve at the scoop's knob
+// position, dashed.
+func plotSynth(res *synth.Result, original *networks.Design, path string, inputs ...string) error {
+	return synthBode(res, original).render(path, inputs...)
+}
+
+// synthBode is the plot plotSynth draws.
+func synthBode(res *synth.Result, original *networks.Design) *bode {
 	d := res.Design
 	b := &bode{
 		Title:   "synthesized: " + designTitle(d),
@@ -669,6 +716,18 @@ func plotSynth(res *synth.Result, path string, inputs ...string) error {
 		Curves:  designCurves(d, atSwept(d, networks.DefaultPositions...), false),
 	}
 	t := res.Targets
+	if original != nil {
+		at := synth.DefaultAt
+		if t.At != nil {
+			at = *t.At
+		}
+		o := designCurves(original, atSwept(original, at), false)[0]
+		o.Label = "original design, blend " + posLabel(at)
+		o.Dash, o.Color, o.Family, o.Marks = true, color.Black, false, nil
+		b.Curves = append(b.Curves, o)
+		b.Title = "re-voiced: " + designTitle(d)
+		b.Caption += "; dashed black: the original design"
+	}
 	if t.ScoopHz != nil && res.Metrics.ScoopFound {
 		at := synth.DefaultAt
 		if t.At != nil {
@@ -687,5 +746,5 @@ func plotSynth(res *synth.Result, path string, inputs ...string) error {
 	if t.CornerHz != nil && *t.CornerHz > d.Band.To {
 		b.Range.To = math.Min(*t.CornerHz*1.5, 10*d.Band.To)
 	}
-	return b.render(path, inputs...)
+	return b
 }

@@ -170,12 +170,12 @@ func writeTolerance(w io.Writer, d *networks.Design, rep *networks.ToleranceRepo
 	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintln(tw, "metric\tdesign\t5th pct\tmedian\t95th pct\ttrials\t")
 	row := func(name string, nominal *float64, s *networks.Spread, f func(float64) string) {
-		nom := "–"
+		nom := "—"
 		if nominal != nil {
 			nom = f(*nominal)
 		}
 		if s == nil {
-			fmt.Fprintf(tw, "%s\t%s\t–\t–\t–\t0\t\n", name, nom)
+			fmt.Fprintf(tw, "%s\t%s\t—\t—\t—\t0\t\n", name, nom)
 			return
 		}
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%d\t\n", name, nom, f(s.P5), f(s.P50), f(s.P95), s.Trials)
@@ -205,7 +205,7 @@ func writeTolerance(w io.Writer, d *networks.Design, rep *networks.ToleranceRepo
 // frequency.
 func tolerancePlot(d *networks.Design, rep *networks.ToleranceReport) *bode {
 	nominal := designCurves(d, []networks.Setting{rep.Knobs}, false)[0]
-	nominal.Label = "design"
+	nominal.Label, nominal.Family = "design", false
 	bd := band{Label: "5th to 95th percentile"}
 	median := curve{Label: "median", Dash: true}
 	for _, c := range rep.Curve {
