@@ -7,6 +7,7 @@ import (
 	"io"
 	"math"
 	"math/cmplx"
+	"strconv"
 	"strings"
 	"text/tabwriter"
 
@@ -220,15 +221,19 @@ func curvesCSV(d *networks.Design, ss []networks.Setting, perDecade int) ([]byte
 		}
 		es[i] = e
 	}
+	buf := b.Bytes()
 	for _, f := range networks.LogGrid(d.Band.From, d.Band.To, perDecade) {
-		fmt.Fprintf(&b, "%.6g", f)
+		buf = strconv.AppendFloat(buf, f, 'g', 6, 64)
 		for _, e := range es {
 			h := e.Transfer(f)
-			fmt.Fprintf(&b, ",%.4f,%.3f", e.GainDB(f), cmplx.Phase(h)*180/math.Pi)
+			buf = append(buf, ',')
+			buf = strconv.AppendFloat(buf, e.GainDB(f), 'f', 4, 64)
+			buf = append(buf, ',')
+			buf = strconv.AppendFloat(buf, cmplx.Phase(h)*180/math.Pi, 'f', 3, 64)
 		}
-		b.WriteString("\n")
+		buf = append(buf, '\n')
 	}
-	return b.Bytes(), nil
+	return buf, nil
 }
 
 // stdoutName is the file name that means standard output, as for most

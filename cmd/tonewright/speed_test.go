@@ -6,7 +6,6 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
-	"sort"
 	"strings"
 	"testing"
 	"time"
@@ -16,13 +15,23 @@ import (
 
 var speed = flag.Bool("speed", false, "time tonewright against ngspice (TestSpeedAgainstNgspice)")
 
-// TestSpeedAgainstNgspice times one sweep in both tools on this machine in
-// one run and prints the ratio: the demo chain, 1000 points per decade over
-// 20 Hz–20 kHz, at 11 blend knob positions (0, 0.1, …, 1). tonewright runs
-// `analyze --csv --points 1000` (which also measures every position);
-// ngspice runs one batch deck that alters the blend pot's two segments and
-// repeats its AC analysis for each position, writing every sweep to a file.
-// Both are whole processes, timed from start to exit, best of five.
+// TestSpeedAgainstNgspice times the same sweep in tonewright and in the
+// ngspice simulator, like for like, and prints the ratios:
+//
+//   - whole processes: one design at 11 settings of one knob (0, 0.1, …,
+//     1), 1000 points per decade over 20 Hz–20 kHz. tonewright runs
+//     `analyze --knob K=… --points 1000 --csv FILE` (which also measures
+//     every figure at each setting and prints a short table, thrown away);
+//     ngspice runs one batch deck with no .ac or .print of its own whose
+//     control block alters the knob's pot segments and runs one AC analysis
+//     per setting, writing each to a file with wrdata. Both write their data
+//     to files; runs alternate, best of 9.
+//   - per point: one long sweep (300 001 points) against a short one (301
+//     points) of each tool, at one setting, the difference divided by the
+//     difference in points, so that start-up is subtracted.
+//
+// It runs on the demo (blend) design and the invented three-knob stack
+// chain (testdata/examples/stack-chain.yaml).
 //
 //	go test ./cmd/tonewright -run TestSpeedAgainstNgspice -speed -v
 func TestSpeedAgainstNgspice(t *testing.T) {
@@ -35,58 +44,105 @@ func TestSpeedAgainstNgspice(t *testing.T) {
 	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
 		t.Fatalf("go build: %v\n%s", err, out)
 	}
-	d, err := networks.LoadDesign(demoFile)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var positions []string
-	var control strings.Builder
-	control.WriteString(".control\nset wr_singlescale\n")
-	for i := 0; i <= 10; i++ {
-		p := float64(i) / 10
-		positions = append(positions, posLabel(p))
-		c := d.Chain(p)
-		a, b := c.Blend.Pot.Segments()
-		fmt.Fprintf(&control, "alter R_Ptone_a = %s\nalter R_Ptone_b = %s\nac dec 1000 20 20000\nwrdata %s v(out)\n",
-			networks.SPICEValue(a), networks.SPICEValue(b), filepath.Join(dir, fmt.Sprintf("ng%d.txt", i)))
-	}
-	control.WriteString(".endc\n")
-	ch := d.Chain(0)
-	var deck strings.Builder
-	if err := ch.Network().WriteSPICE(&deck, "speed comparison", d.Band, 1000); err != nil {
-		t.Fatal(err)
-	}
-	text := strings.Replace(deck.String(), ".end\n", control.String()+".end\n", 1)
-	cir := filepath.Join(dir, "deck.cir")
-	if err := os.WriteFile(cir, []byte(text), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	best := func(name string, cmd func() *exec.Cmd) time.Duration {
-		var ts []time.Duration
-		for i := 0; i < 5; i++ {
-			c := cmd()
-			t0 := time.Now()
-			out, err := c.CombinedOutput()
-			el := time.Since(t0)
-			if err != nil && name == "tonewright" {
-				t.Fatalf("%s: %v\n%s", name, err, out)
+	for _, tc := range []struct{ file, knob string }{
+		{demoFile, networks.BlendKnob},
+		{filepath.Join(top, "examples", "stack-chain.yaml"), "treble"},
+	} {
+		d, err := networks.LoadDesign(tc.file)
+		if err != nil {
+			t.Fatal(err)
+		}
+		sweepDeck := func(positions []float64, points string, data func(i int) string) string {
+			var control strings.Builder
+			control.WriteString(".control\nset wr_singlescale\n")
+			for i, p := range positions {
+				for _, pot := range d.Network(networks.Setting{tc.knob: p}).Pots {
+					if pot.Pot.Position != p || (pot.Name != tc.knob && !(tc.knob == networks.BlendKnob && pot.Name == "Ptone")) {
+						continue
+					}
+					a, b := pot.Pot.Segments()
+					fmt.Fprintf(&control, "alter R_%s_a = %s\nalter R_%s_b = %s\n", pot.Name, networks.SPICEValue(a), pot.Name, networks.SPICEValue(b))
+				}
+				fmt.Fprintf(&control, "ac %s\nwrdata %s v(out)\n", points, data(i))
 			}
-			ts = append(ts, el)
+			control.WriteString(".endc\n")
+			var deck strings.Builder
+			if err := d.Network(networks.Setting{tc.knob: positions[0]}).WriteSPICE(&deck, "speed comparison", d.Band, 1000); err != nil {
+				t.Fatal(err)
+			}
+			var kept []string
+			for _, l := range strings.SplitAfter(deck.String(), "\n") {
+				if strings.HasPrefix(l, ".ac ") || strings.HasPrefix(l, ".print ") || strings.HasPrefix(l, "* vdb") {
+					continue // like for like: only the control block's sweeps
+				}
+				kept = append(kept, l)
+			}
+			return strings.Replace(strings.Join(kept, ""), ".end\n", control.String()+".end\n", 1)
 		}
-		sort.Slice(ts, func(i, j int) bool { return ts[i] < ts[j] })
-		return ts[0]
-	}
-	csv := filepath.Join(dir, "tw.csv")
-	tt := best("tonewright", func() *exec.Cmd {
-		return exec.Command(bin, "analyze", demoFile, "--positions", strings.Join(positions, ","), "--points", "1000", "--csv", csv)
-	})
-	// ngspice exits 1 after a batch run whose analyses are all in a control
-	// block; check the data it wrote instead.
-	tn := best("ngspice", func() *exec.Cmd { return exec.Command("ngspice", "-b", cir) })
-	for i := 0; i <= 10; i++ {
-		if st, err := os.Stat(filepath.Join(dir, fmt.Sprintf("ng%d.txt", i))); err != nil || st.Size() < 3000*30 {
-			t.Fatalf("ngspice sweep %d missing or short: %v", i, err)
+		write := func(name, text string) string {
+			p := filepath.Join(dir, name)
+			if err := os.WriteFile(p, []byte(text), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			return p
 		}
+		var positions []float64
+		var labels []string
+		for i := 0; i <= 10; i++ {
+			positions = append(positions, float64(i)/10)
+			labels = append(labels, posLabel(float64(i)/10))
+		}
+		cir := write("sweep.cir", sweepDeck(positions, "dec 1000 20 20000", func(i int) string { return filepath.Join(dir, fmt.Sprintf("ng%d.txt", i)) }))
+		csv := filepath.Join(dir, "tw.csv")
+		twCmd := func(points string) *exec.Cmd {
+			return exec.Command(bin, "analyze", tc.file, "--knob", tc.knob+"="+strings.Join(labels, ","), "--points", points, "--csv", csv)
+		}
+		tt, tn := interleaved(t, 9, func() *exec.Cmd { return twCmd("1000") }, func() *exec.Cmd { return exec.Command("ngspice", "-b", cir) })
+		for i := range positions {
+			if st, err := os.Stat(filepath.Join(dir, fmt.Sprintf("ng%d.txt", i))); err != nil || st.Size() < 3000*30 {
+				t.Fatalf("ngspice sweep %d missing or short: %v", i, err)
+			}
+		}
+		t.Logf("%s: %s at 11 settings × 3001 points, whole processes, best of 9: tonewright %v, ngspice %v: ngspice takes %.1f× as long",
+			d.Name, tc.knob, tt, tn, float64(tn)/float64(tt))
+
+		// Per point: one setting, a long and a short sweep of each.
+		one := []float64{0.5}
+		long := write("long.cir", sweepDeck(one, "dec 100000 20 20000", func(int) string { return filepath.Join(dir, "long.txt") }))
+		short := write("short.cir", sweepDeck(one, "dec 100 20 20000", func(int) string { return filepath.Join(dir, "short.txt") }))
+		oneCmd := func(points string) func() *exec.Cmd {
+			return func() *exec.Cmd {
+				return exec.Command(bin, "analyze", tc.file, "--knob", tc.knob+"=0.5", "--points", points, "--csv", csv)
+			}
+		}
+		twLong, ngLong := interleaved(t, 3, oneCmd("100000"), func() *exec.Cmd { return exec.Command("ngspice", "-b", long) })
+		twShort, ngShort := interleaved(t, 3, oneCmd("100"), func() *exec.Cmd { return exec.Command("ngspice", "-b", short) })
+		n := float64(300001 - 301)
+		pt, pn := float64(twLong-twShort)/n, float64(ngLong-ngShort)/n
+		t.Logf("%s: per point on one long sweep, start-up subtracted: tonewright %.0f ns (CSV writing included), ngspice %.0f ns: %.1f×",
+			d.Name, pt, pn, pn/pt)
 	}
-	t.Logf("sweep of 11 positions × 3001 points: tonewright %v, ngspice %v: ngspice takes %.1f× as long", tt, tn, float64(tn)/float64(tt))
+}
+
+// interleaved runs a and b in turn n times each and returns the best time
+// of each, as whole processes from start to exit. ngspice exits 1 after a
+// batch run whose analyses are all in a control block, so only a's errors
+// count.
+func interleaved(t *testing.T, n int, a, b func() *exec.Cmd) (ta, tb time.Duration) {
+	t.Helper()
+	run := func(c *exec.Cmd, check bool) time.Duration {
+		t0 := time.Now()
+		out, err := c.CombinedOutput()
+		el := time.Since(t0)
+		if err != nil && check {
+			t.Fatalf("%v: %v\n%s", c.Args, err, out)
+		}
+		return el
+	}
+	ta, tb = time.Duration(1<<62), time.Duration(1<<62)
+	for i := 0; i < n; i++ {
+		ta = min(ta, run(a(), true))
+		tb = min(tb, run(b(), false))
+	}
+	return ta, tb
 }
