@@ -240,3 +240,20 @@ func bisectDown(r Response, lo, hi, target float64) float64 {
 	}
 	return math.Pow(10, (a+b)/2)
 }
+
+// Peak returns the frequency and gain of the response's largest gain on the
+// band: the largest grid point, refined by golden section in log f when it
+// lies strictly inside the band (an end of the band is reported as it is).
+func (m *Meter) Peak(r Response) (hz, gainDB float64) {
+	g := m.fill(r)
+	k := 0
+	for i := range g {
+		if g[i] > g[k] {
+			k = i
+		}
+	}
+	if k > 0 && k < len(g)-1 {
+		return goldenMax(r, m.grid[k-1], m.grid[k+1])
+	}
+	return m.grid[k], g[k]
+}
