@@ -75,6 +75,12 @@
     return minus(plus && v > 0 ? '+' + s : s === '-0.00' ? '0.00' : s) + ' dB';
   }
 
+  function percent(r) {
+    if (Math.abs(r) < 0.0005) return '';
+    const s = (100 * r).toFixed(Math.abs(r) < 0.1 ? 1 : 0);
+    return minus(r > 0 ? '+' + s : s) + ' %';
+  }
+
   // ---- controls ----
   function buildKnobs() {
     const box = $('knobs');
@@ -393,7 +399,7 @@
       $('fig-' + id + '-saved').textContent = fmt(saved);
       let change = '';
       if (now !== null && now !== undefined && saved !== null && saved !== undefined) {
-        change = isDB ? dB(now - saved, true) : (now === saved ? '' : '×' + (now / saved).toFixed(3));
+        change = isDB ? dB(now - saved, true) : percent(now / saved - 1);
         if (isDB && Math.abs(now - saved) < 0.005) change = '';
       }
       $('fig-' + id + '-change').textContent = change;
