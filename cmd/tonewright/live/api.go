@@ -117,7 +117,7 @@ func (l dbList) MarshalJSON() ([]byte, error) {
 func (s *Server) routes() {
 	m := http.NewServeMux()
 	m.HandleFunc("GET /{$}", s.handlePage)
-	m.Handle("GET /page/", http.StripPrefix("/page/", assets()))
+	m.HandleFunc("GET /page/{name}", s.handleAsset)
 	m.HandleFunc("GET /api/state", s.handleState)
 	m.HandleFunc("POST /api/eval", s.handleEval)
 	m.HandleFunc("POST /api/step", s.handleStep)
