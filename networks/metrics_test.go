@@ -76,3 +76,28 @@ func TestAnalyzeRejectsPositions(t *testing.T) {
 		t.Errorf("analysis %+v", a)
 	}
 }
+
+// parabola is a response with G(f) = top − (log10 f − log10 at)², in dB.
+type parabola struct{ at, top float64 }
+
+func (p parabola) GainDB(f float64) float64 {
+	d := math.Log10(f) - math.Log10(p.at)
+	return p.top - d*d
+}
+
+// The peak of a parabola in log f is its vertex (elementary algebra); a
+// peak beyond the band is reported at the band's end, with that end's
+// gain.
+func TestPeak(t *testing.T) {
+	m := NewMeter(DefaultBand)
+	for _, at := range []float64{33.3, 1000, 4321, 19000} {
+		hz, g := m.Peak(parabola{at, 2.5})
+		if math.Abs(hz/at-1) > 1e-6 || math.Abs(g-2.5) > 1e-12 {
+			t.Errorf("vertex at %v Hz: peak %v Hz, %v dB", at, hz, g)
+		}
+	}
+	hz, g := m.Peak(parabola{5, 0})
+	if hz != DefaultBand.From || g != (parabola{5, 0}).GainDB(DefaultBand.From) {
+		t.Errorf("vertex below the band: peak %v Hz, %v dB; want the band's low end", hz, g)
+	}
+}
