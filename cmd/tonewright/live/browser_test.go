@@ -86,13 +86,13 @@ func until(expr string) chromedp.Action[chromedp.Void] {
 // waitDrawn waits until the page has drawn n curves and has no request
 // out or waiting.
 func waitDrawn(n int) chromedp.Action[chromedp.Void] {
-	return until(`window.tw && tw.draws >= ` + strconv.Itoa(n) + ` && !tw.inFlight && !tw.queued`)
+	return until(`window.tw && tw.draws >= ` + strconv.Itoa(n) + ` && tw.busy === 0 && !tw.queued`)
 }
 
 // settle waits until every request the page sent has been drawn or
 // refused.
 func settle() chromedp.Action[chromedp.Void] {
-	return until(`window.tw && !tw.inFlight && !tw.queued`)
+	return until(`window.tw && tw.busy === 0 && !tw.queued`)
 }
 
 // do runs steps, failing the test on an error.
@@ -370,6 +370,7 @@ func TestScreenshot(t *testing.T) {
 		typeInto("#part-highpass-c-value", "4n7"+kb.Enter),
 		settle(),
 		void(chromedp.Evaluate[chromedp.Void](`document.activeElement.blur()`)),
+		chromedp.MouseEvent(chromedp.MouseMoved, 560, 300),
 		chromedp.Sleep(100*time.Millisecond))
 	png, err := chromedp.Run(ctx, chromedp.CaptureScreenshot())
 	if err != nil {

@@ -194,3 +194,34 @@ func TestStep(t *testing.T) {
 		t.Error("direction 0 accepted")
 	}
 }
+
+// A design without a level pot has one knob, and a level in a request is
+// refused by name.
+func TestDesignWithoutLevel(t *testing.T) {
+	d, err := networks.ParseDesign([]byte(`tone:
+  network: blend
+  lowpass:  {r: 22k, c: 10n}
+  highpass: {c: 2n2, r: 47k}
+  pot: 100k
+source: {impedance: 1k}
+`), "invented.yaml") // invented values
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := NewDesignModel(d, "x")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ks := m.Knobs(); len(ks) != 1 || ks[0].Name != KnobBlend {
+		t.Errorf("knobs %v, want blend alone", ks)
+	}
+	for _, p := range m.Parts() {
+		if p.Name == "level" {
+			t.Error("a level part without a level pot")
+		}
+	}
+	var ve *ValueError
+	if _, err := m.Figures(Setting{KnobLevel: 1}); !errors.As(err, &ve) || ve.Field != KnobLevel {
+		t.Errorf("level on a design without one: %v", err)
+	}
+}

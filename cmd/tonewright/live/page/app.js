@@ -25,11 +25,13 @@
     last: null,       // last /api/eval answer drawn
     seq: 0,           // requests sent
     drawnSeq: 0,      // newest request drawn
-    inFlight: false,
+    inFlight: false,  // a slider's request is out
+    busy: 0,          // requests out of any kind
     queued: false,
     inputT0: 0,       // performance.now() of the earliest input not yet drawn
     latencies: [],    // ms from input event to redrawn curve
     draws: 0,
+    hoverX: null,     // pointer over the plot, CSS pixels from its left
   };
   window.tw = st; // for the browser tests
 
@@ -40,17 +42,24 @@
   }
 
   async function post(path, body) {
-    const r = await fetch(path, {
-      method: 'POST',
-      headers: { 'Content-Type': 'application/json', 'X-Tonewright-Token': token },
-      body: JSON.stringify(body),
-    });
-    if (r.headers.get('Content-Type') === 'audio/wav') {
-      return { ok: r.ok, status: r.status, blob: await r.blob() };
+    st.busy++;
+    try {
+      const r = await fetch(path, {
+        method: 'POST',
+        headers: { 'Content-Type': 'application/json', 'X-Tonewright-Token': token },
+        body: JSON.stringify(body),
+      });
+      if (r.headers.get('Content-Type') === 'audio/wav') {
+        return { ok: r.ok, status: r.status, blob: await r.blob() };
+      }
+      let data = null;
+      try { data = await r.json(); } catch (e) { data = { error: 'unreadable answer (' + r.status + ')' }; }
+      return { ok: r.ok, status: r.status, data };
+    } catch (e) {
+      return { ok: false, status: 0, data: { error: 'the server does not answer: is tonewright live still running? (' + e + ')' } };
+    } finally {
+      st.busy--;
     }
-    let data = null;
-    try { data = await r.json(); } catch (e) { data = { error: 'unreadable answer (' + r.status + ')' }; }
-    return { ok: r.ok, status: r.status, data };
   }
 
   // ---- number formatting (display only) ----
@@ -224,9 +233,6 @@
       if (r.ok) draw(r.data, seq, since);
       else setStatus(r.data.error, 'bad');
       if (st.queued) { st.queued = false; refresh(); }
-    }, (e) => {
-      st.inFlight = false;
-      setStatus('the server does not answer: is tonewright live still running? (' + e + ')', 'bad');
     });
   }
 
@@ -344,6 +350,31 @@
     ctx.strokeStyle = '#bdb7a9';
     ctx.lineWidth = 1;
     ctx.strokeRect(m.l + 0.5, m.t + 0.5, pw, ph);
+
+    // The readout under the pointer: the frequency and the gains there.
+    if (st.hoverX !== null && st.hoverX >= m.l && st.hoverX <= m.l + pw) {
+      const lf = lf0 + (st.hoverX - m.l) / pw * lspan;
+      let i = 0;
+      for (let j = 1; j < hz.length; j++) if (Math.abs(Math.log10(hz[j]) - lf) < Math.abs(Math.log10(hz[i]) - lf)) i = j;
+      const xx = Math.round(x(hz[i])) + 0.5;
+      ctx.strokeStyle = '#6d6a62';
+      ctx.setLineDash([2, 3]);
+      ctx.beginPath(); ctx.moveTo(xx, m.t); ctx.lineTo(xx, m.t + ph); ctx.stroke();
+      ctx.setLineDash([]);
+      const lines = [eng(hz[i], 'Hz'), 'now ' + dB(c.current[i]), 'saved ' + dB(c.saved[i])];
+      if (c.compare) lines.push('compare ' + dB(c.compare[i]));
+      ctx.font = '12px system-ui, "DejaVu Sans", sans-serif';
+      const bw = Math.max(...lines.map((l) => ctx.measureText(l).width)) + 14, bh = lines.length * 16 + 8;
+      const bx = xx + 8 + bw > m.l + pw ? xx - 8 - bw : xx + 8;
+      ctx.fillStyle = 'rgba(255, 255, 255, 0.92)';
+      ctx.fillRect(bx, m.t + 6, bw, bh);
+      ctx.strokeStyle = '#d4cfc3';
+      ctx.strokeRect(bx + 0.5, m.t + 6.5, bw, bh);
+      ctx.fillStyle = '#23211d';
+      ctx.textAlign = 'left';
+      ctx.textBaseline = 'top';
+      lines.forEach((l, k) => ctx.fillText(l, bx + 7, m.t + 11 + 16 * k));
+    }
   }
 
   function legend(data) {
@@ -453,6 +484,11 @@
       for (const id of ['play', 'play-saved']) $(id).title = 'playing is not available in this build';
     }
     window.addEventListener('resize', () => { if (st.last) plot(st.last); });
+    canvas.addEventListener('mousemove', (e) => {
+      st.hoverX = e.clientX - canvas.getBoundingClientRect().left;
+      if (st.last) plot(st.last);
+    });
+    canvas.addEventListener('mouseleave', () => { st.hoverX = null; if (st.last) plot(st.last); });
     refresh();
   }
   start();
