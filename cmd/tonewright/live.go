@@ -81,7 +81,14 @@ file. Stop it with Ctrl-C.`,
 			}
 			ctx, stop := signal.NotifyContext(cmd.Context(), os.Interrupt, syscall.SIGTERM)
 			defer stop()
-			fmt.Fprintf(a.out, "tonewright live: http://%s/ (saving to %s; Ctrl-C stops)\n", ln.Addr(), cfg.SavePath)
+			shown := ln.Addr().String()
+			if ip.IsUnspecified() {
+				_, p, _ := net.SplitHostPort(shown)
+				shown = net.JoinHostPort("127.0.0.1", p) + "/ and this machine's other IP addresses, port " + p
+			} else {
+				shown += "/"
+			}
+			fmt.Fprintf(a.out, "tonewright live: http://%s (saving to %s; Ctrl-C stops)\n", shown, cfg.SavePath)
 			if err := srv.Serve(ctx, ln); err != nil && !strings.Contains(err.Error(), "Server closed") {
 				return err
 			}

@@ -23,7 +23,7 @@ func (s *Server) guard(next http.Handler) http.Handler {
 		h.Set("Content-Security-Policy", "default-src 'self'; connect-src 'self'; media-src 'self' blob:; img-src 'self' data:; style-src 'self'; script-src 'self'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'")
 		h.Set("Cache-Control", "no-store")
 		if !s.hostServed(r.Host) {
-			writeError(w, http.StatusForbidden, "", "this server answers only requests addressed to the address it printed")
+			writeError(w, http.StatusForbidden, "", s.servedHint())
 			return
 		}
 		if o := r.Header.Get("Origin"); o != "" && !(strings.HasPrefix(o, "http://") && s.hostServed(o[len("http://"):])) {
@@ -52,6 +52,14 @@ func (s *Server) guard(next http.Handler) http.Handler {
 		}
 		next.ServeHTTP(w, r)
 	})
+}
+
+// servedHint says which address to open instead.
+func (s *Server) servedHint() string {
+	for h := range s.hosts {
+		return "this server answers only requests addressed to http://" + h + "/ (the address it printed): open that"
+	}
+	return "this server answers only requests addressed to one of this machine's IP addresses with port " + s.anyIP + ", not to a name"
 }
 
 // hostServed reports whether a Host header (host:port) is the address
