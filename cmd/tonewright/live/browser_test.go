@@ -280,6 +280,19 @@ func TestBrowser(t *testing.T) {
 		}
 	})
 
+	t.Run("offline", func(t *testing.T) {
+		// Everything the page loaded came from the server itself.
+		urls := js[[]string](t, ctx, `[location.href, ...performance.getEntriesByType('resource').map((e) => e.name)]`)
+		for _, u := range urls {
+			if !strings.HasPrefix(u, base+"/") {
+				t.Errorf("the page loaded %s, not from %s", u, base)
+			}
+		}
+		if len(urls) < 3 {
+			t.Errorf("resources %v: expected the page, its script and style at least", urls)
+		}
+	})
+
 	t.Run("play", func(t *testing.T) {
 		do(t, ctx,
 			chromedp.Click(chromedp.CSS("#play")),

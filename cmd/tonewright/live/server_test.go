@@ -2,6 +2,7 @@ package live
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -275,5 +276,37 @@ func TestManyClients(t *testing.T) {
 	}
 	if g1 > g0+2 {
 		t.Errorf("goroutines grew from %d to %d", g0, g1)
+	}
+}
+
+// fakeRenderer records what it is asked to play; its "sound" is not one.
+type fakeRenderer struct {
+	cur, ref Model
+	setting  Setting
+}
+
+func (f *fakeRenderer) Render(ctx context.Context, cur Model, s Setting, ref Model) ([]byte, error) {
+	f.cur, f.setting, f.ref = cur, s, ref
+	return []byte("RIFF-not-a-sound"), nil
+}
+
+// /api/play hands the renderer the design with the request's values at
+// the request's setting, and the saved design as the loudness reference.
+func TestPlayHandsTheSettingToTheRenderer(t *testing.T) {
+	path := copyDesign(t, demoDesign)
+	const addr = "127.0.0.1:8650"
+	fr := &fakeRenderer{}
+	saved := loadModel(t, path)
+	s, err := New(Config{Design: saved, SavePath: path, Renderer: fr}, addr)
+	if err != nil {
+		t.Fatal(err)
+	}
+	w := httptest.NewRecorder()
+	s.Handler().ServeHTTP(w, request(s, addr, "POST", "/api/play", `{"setting":{"blend":0.2},"values":{"lowpass.r":"4k7"}}`, nil))
+	if w.Code != 200 || w.Header().Get("Content-Type") != "audio/wav" || w.Body.String() != "RIFF-not-a-sound" {
+		t.Fatalf("play: %d %s %q", w.Code, w.Header().Get("Content-Type"), w.Body)
+	}
+	if fr.setting[KnobBlend] != 0.2 || fr.ref != saved || DesignOf(fr.cur).Tone.Lowpass.R != 4700 {
+		t.Errorf("renderer got setting %v, ref %v, lowpass.r %v", fr.setting, fr.ref == saved, DesignOf(fr.cur).Tone.Lowpass.R)
 	}
 }
