@@ -163,21 +163,77 @@ func (s *Server) handleState(w http.ResponseWriter, r *http.Request) {
 	writeJSON(w, http.StatusOK, st)
 }
 
-// decode reads a JSON body strictly: one value, known keys only.
+// decode reads a JSON body strictly: one value, known keys only, no key
+// twice in an object.
 func decode(r *http.Request, v any) error {
-	dec := json.NewDecoder(r.Body)
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(v); err != nil {
+	data, err := io.ReadAll(r.Body)
+	if err != nil {
 		var mbe *http.MaxBytesError
 		if errors.As(err, &mbe) {
 			return fmt.Errorf("request body over %d bytes", MaxBody)
 		}
+		return fmt.Errorf("reading the request: %v", err)
+	}
+	if err := noDuplicateKeys(data); err != nil {
+		return fmt.Errorf("not valid JSON for this request: %v", err)
+	}
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(v); err != nil {
 		return fmt.Errorf("not valid JSON for this request: %v", err)
 	}
 	if _, err := dec.Token(); err != io.EOF {
 		return errors.New("not valid JSON for this request: more than one value in the body")
 	}
 	return nil
+}
+
+// noDuplicateKeys reports a key given twice in one JSON object (which
+// encoding/json would let the last one win). Syntax errors are left to
+// the decoder.
+func noDuplicateKeys(data []byte) error {
+	dec := json.NewDecoder(bytes.NewReader(data))
+	type frame struct {
+		keys   map[string]bool
+		object bool
+		key    bool // the next string token is a key
+	}
+	var stack []frame
+	for {
+		tok, err := dec.Token()
+		if err != nil {
+			return nil
+		}
+		var top *frame
+		if len(stack) > 0 {
+			top = &stack[len(stack)-1]
+		}
+		if d, ok := tok.(json.Delim); ok {
+			switch d {
+			case '{', '[':
+				if top != nil && top.object {
+					top.key = true
+				}
+				stack = append(stack, frame{keys: map[string]bool{}, object: d == '{', key: d == '{'})
+			default:
+				stack = stack[:len(stack)-1]
+			}
+			continue
+		}
+		if top == nil || !top.object {
+			continue
+		}
+		if top.key {
+			k, _ := tok.(string)
+			if top.keys[k] {
+				return fmt.Errorf("key %.40q given twice", k)
+			}
+			top.keys[k] = true
+			top.key = false
+			continue
+		}
+		top.key = true
+	}
 }
 
 // apply returns the saved design with the request's values and the
@@ -266,8 +322,8 @@ func (s *Server) evaluate(m Model, req *changeRequest) (*evalResponse, error) {
 	saved, _ := s.current()
 	set := req.Setting
 	sweep := req.Sweep
-	if sweep == "" {
-		sweep = m.Knobs()[0].Name
+	if ks := m.Knobs(); sweep == "" && len(ks) > 0 {
+		sweep = ks[0].Name
 	}
 	n := len(s.hz)
 	resp := &evalResponse{Hz: s.hz, Sweep: sweep, Values: map[string]string{}}
@@ -280,6 +336,9 @@ func (s *Server) evaluate(m Model, req *changeRequest) (*evalResponse, error) {
 		return nil, err
 	}
 	for i, end := range []float64{0, 1} {
+		if sweep == "" {
+			break
+		}
 		st := Setting{}
 		for k, v := range set {
 			st[k] = v
@@ -376,10 +435,14 @@ func (s *Server) handleSave(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	s.mu.Lock()
-	s.saved = m
-	for k, v := range req.Setting {
-		s.knobs[k] = v
+	knobs := Setting{}
+	for k, v := range s.knobs {
+		knobs[k] = v
 	}
+	for k, v := range req.Setting {
+		knobs[k] = v
+	}
+	s.saved, s.knobs = m, knobs // a new map: readers hold the old one
 	s.mu.Unlock()
 	resp := saveResponse{File: filepath.Base(s.cfg.SavePath)}
 	if backup != "" {

@@ -7,6 +7,7 @@ import (
 	"math/cmplx"
 	"regexp"
 	"strconv"
+	"strings"
 
 	"tonewright/networks"
 )
@@ -17,6 +18,10 @@ const (
 	KnobBlend = "blend"
 	KnobLevel = "level"
 )
+
+// BlendStart is where the blend knob starts: the design file has no
+// position for it, so the centre.
+const BlendStart = 0.5
 
 // designModel is the Model over a networks.Design: the blend tone network,
 // its filter sections and level pot.
@@ -50,7 +55,7 @@ func (m *designModel) Name() string        { return m.name }
 func (m *designModel) Band() networks.Band { return m.d.Band }
 
 func (m *designModel) Knobs() []Knob {
-	ks := []Knob{{Name: KnobBlend, Label: "blend (low-pass ↔ high-pass)", Saved: networks.ImpedanceBlend}}
+	ks := []Knob{{Name: KnobBlend, Label: "blend (low-pass ↔ high-pass)", Saved: BlendStart}}
 	if m.d.Level != nil {
 		ks = append(ks, Knob{Name: KnobLevel, Label: "level", Saved: m.d.Level.Position})
 	}
@@ -76,7 +81,7 @@ func (m *designModel) Parts() []Part {
 		switch {
 		case p.Name == "level":
 			q.Group = "level"
-		case len(p.Name) > 6 && p.Name[:6] == "filter":
+		case strings.HasPrefix(p.Name, "filter"):
 			q.Group = "filters"
 		}
 		ps = append(ps, q)
@@ -145,7 +150,7 @@ func partOfKey(key string) string {
 
 // at returns the design with its level knob at s, and the blend position.
 func (m *designModel) at(s Setting) (*networks.Design, float64, error) {
-	blend := networks.ImpedanceBlend
+	blend := BlendStart
 	d := m.d
 	for name, v := range s {
 		if !(v >= 0 && v <= 1) {

@@ -71,6 +71,8 @@ func TestGuardRefuses(t *testing.T) {
 		{"body too large", "POST", "/api/eval", `{"values":{"x":"` + strings.Repeat("1", MaxBody) + `"}}`, nil, 413},
 		{"unknown key", "POST", "/api/save", `{"setting":{},"path":"/etc/passwd"}`, nil, 400},
 		{"two values", "POST", "/api/eval", eval + eval, nil, 400},
+		{"a key twice", "POST", "/api/save", `{"values":{"lowpass.r":"1k","lowpass.r":"2k"}}`, nil, 400},
+		{"a top key twice", "POST", "/api/eval", `{"setting":{},"setting":{}}`, nil, 400},
 		{"not JSON", "POST", "/api/eval", `{`, nil, 400},
 		{"bad value", "POST", "/api/save", `{"values":{"lowpass.r":"4k7k"}}`, nil, 400},
 		{"wrong unit", "POST", "/api/eval", `{"values":{"lowpass.r":"4n7F"}}`, nil, 400},
@@ -308,5 +310,21 @@ func TestPlayHandsTheSettingToTheRenderer(t *testing.T) {
 	}
 	if fr.setting[KnobBlend] != 0.2 || fr.ref != saved || DesignOf(fr.cur).Tone.Lowpass.R != 4700 {
 		t.Errorf("renderer got setting %v, ref %v, lowpass.r %v", fr.setting, fr.ref == saved, DesignOf(fr.cur).Tone.Lowpass.R)
+	}
+}
+
+func TestNoDuplicateKeys(t *testing.T) {
+	for in, ok := range map[string]bool{
+		`{"a":1,"b":2}`:                           true,
+		`{"a":[{"x":1},{"x":2}],"b":{"x":{}}}`:    true,
+		`{"a":["a","a"],"b":"a"}`:                 true,
+		`{"a":{"b":1},"a":2}`:                     false,
+		`{"a":[1,{"c":1,"c":2}]}`:                 false,
+		`{"s":{"blend":0.5,"level":1,"blend":0}}`: false,
+		`[{"k":1},{"k":1}]`:                       true,
+	} {
+		if err := noDuplicateKeys([]byte(in)); (err == nil) != ok {
+			t.Errorf("noDuplicateKeys(%s) = %v", in, err)
+		}
 	}
 }
