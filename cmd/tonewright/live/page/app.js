@@ -285,6 +285,10 @@
     let bottom = Math.max(Math.floor((lo - 1) / 6) * 6, top - 60);
     if (!(top > bottom)) { top = 6; bottom = -54; }
     const y = (v) => m.t + (top - v) / (top - bottom) * ph;
+    st.below = {}; // curves wholly below the plot, for the legend
+    for (const key of ['low', 'high', 'compare']) {
+      if (c[key]) st.below[key] = c[key].every((v) => v === null || v < bottom) ? bottom : null;
+    }
 
     // Grid and labels.
     ctx.font = '12px system-ui, "DejaVu Sans", sans-serif';
@@ -390,11 +394,13 @@
     };
     const knob = st.info.knobs.find((k) => k.name === data.sweep);
     const name = knob ? knob.name : data.sweep;
+    const below = (key) => (st.below && st.below[key] !== null && st.below[key] !== undefined)
+      ? ' (below ' + minus(String(st.below[key])) + ' dB)' : '';
     item(colours.current, 'now');
-    item(colours.low, name + ' at 0');
-    item(colours.high, name + ' at 1');
+    item(colours.low, name + ' at 0' + below('low'));
+    item(colours.high, name + ' at 1' + below('high'));
     item(colours.saved, 'saved ' + st.info.file, true);
-    if (data.curves.compare) item(colours.compare, 'compare: ' + st.info.compare);
+    if (data.curves.compare) item(colours.compare, 'compare: ' + st.info.compare + below('compare'));
   }
 
   const figureRows = [
