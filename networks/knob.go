@@ -102,6 +102,21 @@ func (d *Design) checkKnob(name string) error {
 	return fmt.Errorf("unknown knob %q: this design's knobs are %s", name, strings.Join(names, ", "))
 }
 
+// WithPositions returns a copy of d whose knobs that have a position (and
+// the level) sit where s puts them; knobs without one stay without.
+func (d *Design) WithPositions(s Setting) *Design {
+	c := d.Clone()
+	for i, p := range c.Tone.Parts {
+		if v, ok := s[p.knob()]; ok && p.Kind == PartPot && p.Position != nil {
+			c.Tone.Parts[i].Position = &v
+		}
+	}
+	if v, ok := s[LevelKnob]; ok && c.Level != nil {
+		c.Level.Position = v
+	}
+	return c
+}
+
 // KnobList is a knob and the positions to put it at.
 type KnobList struct {
 	Name      string
