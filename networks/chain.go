@@ -29,29 +29,7 @@ const (
 // Network returns the chain as a general network, for the nodal solver and
 // for SPICE decks.
 func (c *Chain) Network() *Network {
-	n := &Network{}
-	drive := c.Source.build(n, NodeIn)
-	n.SetSource(drive, c.Source.Impedance)
-	wiper := NodeTone
-	if len(c.Filters) == 0 && c.Level == nil {
-		wiper = NodeOut
-	}
-	c.Blend.Build(n, NodeIn, wiper)
-	last := wiper
-	if len(c.Filters) > 0 {
-		end := NodeOut
-		if c.Level != nil {
-			end = "filtered"
-		}
-		BuildLadder(n, c.Filters, wiper, end)
-		last = end
-	}
-	if c.Level != nil {
-		c.Level.Build(n, last, NodeOut)
-	}
-	c.Load.Build(n, NodeOut)
-	n.SetOutput(NodeOut)
-	return n
+	return assemble(c.Source, func(n *Network, out string) { c.Blend.Build(n, NodeIn, out) }, c.Filters, c.Level, c.Load, circuitOptions{})
 }
 
 // Compiled is a chain reduced to the numbers its two-port cascade needs:

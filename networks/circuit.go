@@ -40,40 +40,54 @@ func (d *Design) complete(s Setting) Setting {
 }
 
 func (d *Design) circuit(s Setting, opt circuitOptions) *Network {
+	var level *Level
+	if d.Level != nil {
+		level = &Level{Pot: Pot{Value: d.Level.Pot.Value, Taper: d.Level.Pot.Taper, Position: s[LevelKnob]}}
+	}
+	return assemble(d.Source, func(n *Network, out string) {
+		buildParts(n, d.ToneParts(), s, func(node string) string {
+			switch {
+			case node == NetOut:
+				return out
+			case node == NetGnd || isGround(node):
+				return Ground
+			}
+			return node
+		})
+	}, d.Filters, level, d.Load, opt)
+}
+
+// assemble builds the chain around a tone network, which tone adds
+// between NodeIn and its output node out: the source ahead of it, the
+// filter sections, the level pot and the load after it, as the comment
+// above says.
+func assemble(src Source, tone func(n *Network, out string), filters []RC, level *Level, load Load, opt circuitOptions) *Network {
 	n := &Network{}
 	if opt.noSource {
 		n.SetSource(NodeIn, 0)
 	} else {
-		drive := d.Source.build(n, NodeIn)
-		n.SetSource(drive, d.Source.Impedance)
+		drive := src.build(n, NodeIn)
+		n.SetSource(drive, src.Impedance)
 	}
 	toneOut := NodeTone
-	if len(d.Filters) == 0 && d.Level == nil {
+	if len(filters) == 0 && level == nil {
 		toneOut = NodeOut
 	}
-	buildParts(n, d.ToneParts(), s, func(node string) string {
-		switch {
-		case node == NetOut:
-			return toneOut
-		case node == NetGnd || isGround(node):
-			return Ground
-		}
-		return node
-	})
+	tone(n, toneOut)
 	last := toneOut
-	if len(d.Filters) > 0 {
+	if len(filters) > 0 {
 		end := NodeOut
-		if d.Level != nil {
+		if level != nil {
 			end = "filtered"
 		}
-		BuildLadder(n, d.Filters, toneOut, end)
+		BuildLadder(n, filters, toneOut, end)
 		last = end
 	}
-	if d.Level != nil {
-		Level{Pot: Pot{Value: d.Level.Pot.Value, Taper: d.Level.Pot.Taper, Position: s[LevelKnob]}}.Build(n, last, NodeOut)
+	if level != nil {
+		level.Build(n, last, NodeOut)
 	}
 	if !opt.noLoad {
-		d.Load.Build(n, NodeOut)
+		load.Build(n, NodeOut)
 	}
 	n.SetOutput(NodeOut)
 	return n

@@ -170,18 +170,7 @@ func (dec *Decoder) netPart(n *yaml.Node, path, name string) (NetPart, error) {
 		kind(PartResistor, "Ω"), kind(PartCapacitor, "F"), kind(PartInductor, "H"), kind(PartPot, "Ω"),
 		Key{"from", node(&part.From)}, Key{"to", node(&part.To)},
 		only("wiper", node(&part.Wiper)),
-		only("taper", func(n *yaml.Node, p string) error {
-			s, err := dec.String(n, p)
-			if err != nil {
-				return err
-			}
-			t, err := ParseTaper(s)
-			if err != nil {
-				return dec.Errorf(n, p, "%v", err)
-			}
-			part.Taper.Law = t.Law
-			return nil
-		}),
+		only("taper", dec.law(&part.Taper.Law)),
 		only("midpoint", func(n *yaml.Node, p string) (err error) { haveMid = true; mid, err = dec.Number(n, p); return }),
 		only("knob", node(&part.Knob)),
 		only("position", func(n *yaml.Node, p string) error {

@@ -319,6 +319,22 @@ func (d *Decoder) Load(n *yaml.Node, path string, l *Load) error {
 		Key{"c", d.farads(&l.C)})
 }
 
+// law returns a Decode that reads a taper's name (ParseTaper) into *l.
+func (d *Decoder) law(l *Law) func(*yaml.Node, string) error {
+	return func(n *yaml.Node, k string) error {
+		s, err := d.String(n, k)
+		if err != nil {
+			return err
+		}
+		t, err := ParseTaper(s)
+		if err != nil {
+			return d.Errorf(n, k, "%v", err)
+		}
+		*l = t.Law
+		return nil
+	}
+}
+
 // Pot reads a pot part: a bare value (linear taper) or {value, taper,
 // midpoint}.
 func (d *Decoder) Pot(n *yaml.Node, path string, p *PotPart) error {
@@ -332,18 +348,7 @@ func (d *Decoder) Pot(n *yaml.Node, path string, p *PotPart) error {
 	var haveMid bool
 	err := d.Map(n, path,
 		Key{"value", d.ohms(&p.Value)},
-		Key{"taper", func(n *yaml.Node, k string) error {
-			s, err := d.String(n, k)
-			if err != nil {
-				return err
-			}
-			t, err := ParseTaper(s)
-			if err != nil {
-				return d.Errorf(n, k, "%v", err)
-			}
-			p.Taper.Law = t.Law
-			return nil
-		}},
+		Key{"taper", d.law(&p.Taper.Law)},
 		Key{"midpoint", func(n *yaml.Node, k string) (err error) {
 			haveMid = true
 			mid, err = d.Number(n, k)
