@@ -177,25 +177,28 @@ func (n *Network) analyse() (*analysis, error) {
 	}
 	an := &analysis{p: p, u: u, v: v, r: r}
 	sigma := n.shiftScale()
-	for round := 0; round < 2; round++ {
-		if err := an.at(sigma); err != nil {
-			return nil, err
+	if err := an.at(sigma); err != nil {
+		return nil, err
+	}
+	// Poles at the origin (a node joined to the rest by capacitors only
+	// holds its charge) come out as rounding noise and say nothing of the
+	// scale.
+	sigma = an.s.sigma
+	lo, hi := math.Inf(1), 0.0
+	for _, q := range an.poles {
+		a := cmplx.Abs(q)
+		if a > 1e-9*sigma {
+			lo, hi = math.Min(lo, a), math.Max(hi, a)
 		}
-		lo, hi := math.Inf(1), 0.0
-		for _, q := range an.poles {
-			a := cmplx.Abs(q)
-			if a > 1e-12*sigma {
-				lo, hi = math.Min(lo, a), math.Max(hi, a)
+	}
+	if hi > 0 {
+		next := math.Sqrt(lo * hi)
+		if next > 10*sigma || next < sigma/10 {
+			first := *an
+			if err := an.at(next); err != nil {
+				*an = first
 			}
 		}
-		if hi == 0 {
-			break
-		}
-		next := math.Sqrt(lo * hi)
-		if next < 10*sigma && next > sigma/10 {
-			break
-		}
-		sigma = next
 	}
 	return an, nil
 }
