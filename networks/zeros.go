@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"sort"
 
 	"gonum.org/v1/gonum/mat"
 )
@@ -28,7 +29,8 @@ var errNoTransfer = errors.New("the output does not depend on the source: no pat
 // infinity of order d is a d-fold eigenvalue λ = 0 of K_z, which rounding
 // spreads into a small cluster of radius about (ε·‖K_z‖)^(1/d)·‖K_z‖^(1−1/d).
 // An eigenvalue is taken for such a zero at infinity when it lies within
-// 100 times its own first-order error bound, κ·ε·‖K_z‖ (κ the eigenvalue's
+// 100 times its own first-order error bound, κ·ε·(‖K‖ + ‖b̂‖·‖ck‖/|H(σ)|)
+// (κ the eigenvalue's
 // condition number from its left and right eigenvectors), of λ = 0: it
 // cannot be told from infinity, and a finite zero that far out
 // (|s| ≳ σ/(100·κ·ε)) changes H in the band by no more than that bound.
@@ -69,11 +71,9 @@ func (s *shifted) zeros() ([]complex128, error) {
 			kz[i*r+j] = v
 		}
 	}
-	var fro float64
-	for _, v := range kz {
-		fro += v * v
-	}
-	fro = math.Sqrt(fro)
+	// The scale of K_z's rounding is that of the terms it is the
+	// difference of, not its own (which vanishes for a zero at infinity).
+	fro := norm2(s.k) + norm2(bh)*norm2(s.ck)/math.Abs(hs)
 	var e mat.Eigen
 	if !e.Factorize(mat.NewDense(r, r, kz), mat.EigenBoth) {
 		return nil, fmt.Errorf("the eigenvalue iteration did not converge")
@@ -83,26 +83,49 @@ func (s *shifted) zeros() ([]complex128, error) {
 	e.VectorsTo(&vr)
 	e.LeftVectorsTo(&vl)
 	const eps = 0x1p-52
-	out := make([]complex128, 0, r)
+	// Candidates for zeros at infinity: eigenvalues within 100 times their
+	// first-order error bound of λ = 0.
+	var cand []int
 	for i, l := range lam {
 		if l == 0 {
-			continue // exactly at infinity (an inductor with a dangling end)
+			cand = append(cand, i) // exactly at infinity (an inductor with a dangling end)
+			continue
 		}
-		if !multiple(lam, i) {
-			var dot complex128
-			var nr, nl float64
-			for q := 0; q < r; q++ {
-				a, b := vr.At(q, i), vl.At(q, i)
-				dot += cmplx.Conj(b) * a
-				nr += real(a)*real(a) + imag(a)*imag(a)
-				nl += real(b)*real(b) + imag(b)*imag(b)
-			}
-			kappa := math.Sqrt(nr*nl) / cmplx.Abs(dot)
-			if !(cmplx.Abs(l) > 100*kappa*eps*fro) {
-				continue // a zero at infinity
-			}
+		if multiple(lam, i) {
+			continue
 		}
-		out = append(out, complex(s.sigma, 0)-1/l)
+		var dot complex128
+		var nr, nl float64
+		for q := 0; q < r; q++ {
+			a, b := vr.At(q, i), vl.At(q, i)
+			dot += cmplx.Conj(b) * a
+			nr += real(a)*real(a) + imag(a)*imag(a)
+			nl += real(b)*real(b) + imag(b)*imag(b)
+		}
+		kappa := math.Sqrt(nr*nl) / cmplx.Abs(dot)
+		if !(cmplx.Abs(l) > 100*kappa*eps*fro) {
+			cand = append(cand, i)
+		}
+	}
+	// The zeros at infinity form one ring around λ = 0, its members of
+	// similar size. A finite zero beside the ring, whose condition number
+	// the ring inflates, stands above it past a gap wider than a factor 3:
+	// from the largest candidate down, those past such a gap are kept, and
+	// the rest, from the first pair without one, are the ring.
+	sort.Slice(cand, func(a, b int) bool { return cmplx.Abs(lam[cand[a]]) > cmplx.Abs(lam[cand[b]]) })
+	infinite := make([]bool, r)
+	top := 0
+	for top+1 < len(cand) && cmplx.Abs(lam[cand[top]]) > 3*cmplx.Abs(lam[cand[top+1]]) {
+		top++
+	}
+	for _, i := range cand[top:] {
+		infinite[i] = true
+	}
+	out := make([]complex128, 0, r)
+	for i, l := range lam {
+		if !infinite[i] {
+			out = append(out, complex(s.sigma, 0)-1/l)
+		}
 	}
 	return out, nil
 }
