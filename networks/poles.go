@@ -34,7 +34,7 @@ type shifted struct {
 
 // maxShiftCond is the largest condition number of G + σC accepted for a
 // shift; past it another shift is tried.
-const maxShiftCond = 1e12
+const maxShiftCond = 1e15
 
 // reduce forms the reduction at shift sigma.
 func (p *pencil) reduce(u, v []float64, r int, sigma float64) (*shifted, error) {
@@ -246,7 +246,7 @@ const infiniteEigen = 1e-14
 // (G + sC)·x = b·u with the source shorted (see pencil). For a real shift
 // σ > 0 — a passive network has no pole in the right half-plane, so G + σC
 // is regular there; shifts are retried a decade off when it is
-// ill-conditioned (condition number above 10¹²) — the eigenvalues μ of
+// ill-conditioned (condition number above 10¹⁵) — the eigenvalues μ of
 // M = (G + σC)⁻¹·C give the poles s = σ − 1/μ. gonum's mat.Eigen computes μ
 // from the equivalent r×r matrix K = Vᵀ(G + σC)⁻¹U, where C = U·Vᵀ is a
 // factorisation of exact rank r read from the circuit's graph (pencil.factorC):

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"slices"
 	"sort"
 
 	"gonum.org/v1/gonum/mat"
@@ -34,14 +35,14 @@ var errNoTransfer = errors.New("the output does not depend on the source: no pat
 // condition number from its left and right eigenvectors), of λ = 0: it
 // cannot be told from infinity, and a finite zero that far out
 // (|s| ≳ σ/(100·κ·ε)) changes H in the band by no more than that bound.
-func (s *shifted) zeros() ([]complex128, error) {
+func (s *shifted) zeros() (z zeroSet, err error) {
 	r := s.r
 	hs := s.h0 + s.sigma*s.h1
 	if r == 0 {
 		if hs == 0 {
-			return nil, errNoTransfer
+			return z, errNoTransfer
 		}
-		return nil, nil
+		return z, nil
 	}
 	bh := make([]float64, r)
 	for i := range bh {
@@ -52,7 +53,7 @@ func (s *shifted) zeros() ([]complex128, error) {
 		lu.Factorize(mat.NewDense(r, r, append([]float64(nil), s.k...)))
 		var x mat.VecDense
 		if err := lu.SolveVecTo(&x, false, mat.NewVecDense(r, append([]float64(nil), s.bk1...))); err != nil {
-			return nil, fmt.Errorf("the reduced pencil is singular: %v", err)
+			return z, fmt.Errorf("the reduced pencil is singular: %v", err)
 		}
 		for i := range bh {
 			bh[i] -= x.AtVec(i)
@@ -60,9 +61,9 @@ func (s *shifted) zeros() ([]complex128, error) {
 	}
 	if hs == 0 || math.IsNaN(hs) {
 		if norm2(s.ck) == 0 || norm2(bh) == 0 {
-			return nil, errNoTransfer
+			return z, errNoTransfer
 		}
-		return nil, fmt.Errorf("the shift σ = %g rad/s is a zero of the transfer", s.sigma)
+		return z, fmt.Errorf("the shift σ = %g rad/s is a zero of the transfer", s.sigma)
 	}
 	kz := make([]float64, r*r)
 	for i := 0; i < r; i++ {
@@ -76,7 +77,7 @@ func (s *shifted) zeros() ([]complex128, error) {
 	fro := norm2(s.k) + norm2(bh)*norm2(s.ck)/math.Abs(hs)
 	var e mat.Eigen
 	if !e.Factorize(mat.NewDense(r, r, kz), mat.EigenBoth) {
-		return nil, fmt.Errorf("the eigenvalue iteration did not converge")
+		return z, fmt.Errorf("the eigenvalue iteration did not converge")
 	}
 	lam := e.Values(nil)
 	var vr, vl mat.CDense
@@ -113,21 +114,45 @@ func (s *shifted) zeros() ([]complex128, error) {
 	// from the largest candidate down, those past such a gap are kept, and
 	// the rest, from the first pair without one, are the ring.
 	sort.Slice(cand, func(a, b int) bool { return cmplx.Abs(lam[cand[a]]) > cmplx.Abs(lam[cand[b]]) })
-	infinite := make([]bool, r)
 	top := 0
-	for top+1 < len(cand) && cmplx.Abs(lam[cand[top]]) > 3*cmplx.Abs(lam[cand[top+1]]) {
-		top++
+	for top < len(cand) {
+		// A conjugate pair is one level: compare with the next smaller one.
+		size := cmplx.Abs(lam[cand[top]])
+		next := top + 1
+		for next < len(cand) && cmplx.Abs(lam[cand[next]]) >= size*(1-1e-9) {
+			next++
+		}
+		if next == len(cand) || size <= 3*cmplx.Abs(lam[cand[next]]) {
+			break
+		}
+		top = next
 	}
-	for _, i := range cand[top:] {
-		infinite[i] = true
-	}
-	out := make([]complex128, 0, r)
 	for i, l := range lam {
-		if !infinite[i] {
-			out = append(out, complex(s.sigma, 0)-1/l)
+		if !slices.Contains(cand, i) {
+			z.sure = append(z.sure, complex(s.sigma, 0)-1/l)
 		}
 	}
-	return out, nil
+	for _, i := range cand {
+		if lam[i] == 0 {
+			continue // exactly at infinity: never a finite zero
+		}
+		z.cand = append(z.cand, complex(s.sigma, 0)-1/lam[i])
+	}
+	z.keep = min(top, len(z.cand))
+	return z, nil
+}
+
+// zeroSet is the outcome of shifted.zeros: the zeros that are surely
+// finite, and the candidates for zeros at infinity ordered from the
+// smallest |s| up, of which the first keep are judged finite.
+type zeroSet struct {
+	sure, cand []complex128
+	keep       int
+}
+
+// with returns the zeros when the first j candidates are finite.
+func (z zeroSet) with(j int) []complex128 {
+	return append(append([]complex128(nil), z.sure...), z.cand[:j]...)
 }
 
 // multiple reports whether lam[i] has another eigenvalue within 5 % of its
@@ -152,3 +177,4 @@ func norm2(v []float64) float64 {
 	}
 	return math.Sqrt(s)
 }
+

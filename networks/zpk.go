@@ -61,7 +61,6 @@ func (n *Network) CompileZPKInto(k *ZPK) error {
 	if err != nil {
 		return err
 	}
-
 	solver, err := n.Compile()
 	if err != nil {
 		return err
@@ -69,8 +68,7 @@ func (n *Network) CompileZPKInto(k *ZPK) error {
 	var next ZPK
 	next.poles, next.zeros = k.poles, k.zeros
 	next.realZ, next.realP, next.pairZ, next.pairP = k.realZ, k.realP, k.pairZ, k.pairP
-	next.set(an.poles, zs)
-	if err := next.calibrate(solver, an.s.sigma); err != nil {
+	if err := next.fit(an, zs, solver); err != nil {
 		return err
 	}
 	*k = next
@@ -102,6 +100,78 @@ func factors(roots []complex128, re []float64, pairs []pairFactor) ([]float64, [
 		}
 	}
 	return re, pairs
+}
+
+// fit sets the roots and the gain constant. Which of the candidates for
+// zeros at infinity (zeroSet) are finite is decided by the ring heuristic
+// of shifted.zeros unless another choice agrees better with the nodal
+// solver: each choice that keeps conjugate pairs whole is calibrated and
+// compared with the solver at the candidates' own frequencies (where a
+// zero wrongly kept or dropped shows most), at decades around the shift
+// and across the audio band, by the largest |ln(H/H_solver)|; the
+// heuristic's choice stands unless another halves that error.
+func (k *ZPK) fit(an *analysis, zs zeroSet, s *Solver) error {
+	if len(zs.cand) == 0 {
+		k.set(an.poles, zs.sure)
+		return k.calibrate(s, an.s.sigma)
+	}
+	for i, c := range zs.cand {
+		if imag(c) >= 0 {
+			zs.cand[i] = an.p.polish(c)
+		}
+	}
+	for i, c := range zs.cand { // conjugates follow their polished partner
+		if imag(c) < 0 && i > 0 && imag(zs.cand[i-1]) > 0 {
+			zs.cand[i] = cmplx.Conj(zs.cand[i-1])
+		}
+	}
+	var ws []float64
+	for _, c := range zs.cand {
+		ws = append(ws, cmplx.Abs(c))
+	}
+	for _, f := range []float64{1e-2, 1e-1, 1, 10, 100, 1e3} {
+		ws = append(ws, an.s.sigma*f)
+	}
+	for _, f := range []float64{10, 100, 1e3, 1e4, 1e5} {
+		ws = append(ws, 2*math.Pi*f)
+	}
+	type point struct {
+		w float64
+		h complex128
+	}
+	var pts []point
+	for _, w := range ws {
+		if h := s.Transfer(w / (2 * math.Pi)); h != 0 && !cmplx.IsNaN(h) && !cmplx.IsInf(h) {
+			pts = append(pts, point{w, h})
+		}
+	}
+	misfit := func(j int) float64 {
+		k.set(an.poles, zs.with(j))
+		if k.calibrate(s, an.s.sigma) != nil {
+			return math.Inf(1)
+		}
+		var worst float64
+		for _, p := range pts {
+			q, e := k.product(p.w)
+			if k.negK {
+				q = -q
+			}
+			d := cmplx.Log(q/p.h) + complex(k.logK+float64(e)*math.Ln2, 0)
+			worst = math.Max(worst, cmplx.Abs(complex(real(d), math.Remainder(imag(d), 2*math.Pi))))
+		}
+		return worst
+	}
+	best, bestMis := zs.keep, misfit(zs.keep)
+	for j := 0; j <= len(zs.cand); j++ {
+		if j == zs.keep || (j > 0 && j < len(zs.cand) && imag(zs.cand[j]) != 0 && zs.cand[j] == cmplx.Conj(zs.cand[j-1])) {
+			continue
+		}
+		if m := misfit(j); m < bestMis/2 {
+			best, bestMis = j, m
+		}
+	}
+	k.set(an.poles, zs.with(best))
+	return k.calibrate(s, an.s.sigma)
 }
 
 // calibrate sets k from the solver at the reference frequency.
@@ -294,25 +364,15 @@ func renorm(v float64, e, sign int) (float64, int) {
 // Method: the pencil is reduced at a real shift σ exactly as for Poles, to
 // the order r of the circuit's independent capacitor voltages and inductor
 // currents; in λ = 1/(σ − s) it is then an ordinary state space with a
-// direct term H(σ), whose zeros are the eigenvalues of one r×r matrix.
-// Eigenvalues that cannot be told from λ = 0 within their error bound are
-// the zeros at infinity and are dropped (shifted.zeros). Each zero is then
-// polished by Newton's method on H evaluated from the unreduced pencil
-// (pencil.refineZeros). As with Poles, a mode the source cannot excite or
+// direct term H(σ), whose zeros are the eigenvalues of one r×r matrix
+// (shifted.zeros). The zeros at infinity appear as a ring of eigenvalues
+// around λ = 0, told apart by their error bounds and checked against the
+// nodal solver (ZPK.fit). As with Poles, a mode the source cannot excite or
 // the output cannot see appears among the zeros as well as among the poles.
 func (n *Network) Zeros() ([]complex128, error) {
-	an, err := n.analyse()
+	k, err := n.CompileZPK()
 	if err != nil {
 		return nil, err
 	}
-	if an.p.out < 0 {
-		return nil, nil
-	}
-	zs, err := an.s.zeros()
-	if err != nil {
-		return nil, err
-	}
-
-	sortRoots(zs)
-	return zs, nil
+	return k.Zeros(), nil
 }

@@ -15,7 +15,7 @@ import (
 // every node has a DC path to ground (as in a real circuit, where a node
 // reached through capacitors only would hold an arbitrary charge), none is
 // reached through inductors alone, and the output is reached from the
-// source; up to as many again random resistors, capacitors, inductors and
+// source; then between half and one and a half times as many random
 // pots are added. Values
 // are log-uniform over 10 Ω–10 MΩ, 10 pF–10 µF and 1 mH–10 H; the source
 // is ideal in a third of the draws, else behind 10 Ω–100 kΩ.
@@ -50,7 +50,7 @@ func randomNetlist(rng *rand.Rand) *Network {
 		}
 		add(kind, i, to)
 	}
-	for extra := rng.IntN(nodes + 1); extra > 0; extra-- {
+	for extra := 1 + nodes/2 + rng.IntN(nodes+1); extra > 0; extra-- {
 		a, b := rng.IntN(nodes+1), rng.IntN(nodes+1)
 		if a == b {
 			continue
