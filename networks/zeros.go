@@ -177,4 +177,3 @@ func norm2(v []float64) float64 {
 	}
 	return math.Sqrt(s)
 }
-
