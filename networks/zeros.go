@@ -53,7 +53,7 @@ func (s *shifted) zeros() (z zeroSet, err error) {
 		lu.Factorize(mat.NewDense(r, r, append([]float64(nil), s.k...)))
 		var x mat.VecDense
 		if err := lu.SolveVecTo(&x, false, mat.NewVecDense(r, append([]float64(nil), s.bk1...))); err != nil {
-			return z, fmt.Errorf("the reduced pencil is singular: %v", err)
+			return z, fmt.Errorf("the compiled form cannot represent a node reached through inductors alone beside the ideal source (%v): use the nodal solver", err)
 		}
 		for i := range bh {
 			bh[i] -= x.AtVec(i)

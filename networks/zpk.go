@@ -281,8 +281,8 @@ func (k *ZPK) Phase(f float64) float64 {
 const dBPerLn = 10 / math.Ln10
 
 // GainDB returns 20·log10|V(out)/V(source)| at frequency f, as
-// Response.GainDB means it. It is finite for any f > 0 at which H has no
-// zero exactly: |H|² is formed as a product of its real factors in ω²
+// Response.GainDB means it. It is finite for any f between 0 and 10¹⁵⁰ Hz
+// (ω² must not overflow) at which H has no zero exactly: |H|² is formed as a product of its real factors in ω²
 // (x + a² for a real root a, (|z|² − x)² + (2·Re z)²·x for a pair) with the
 // numerator and denominator kept in range by moving powers of two into an
 // integer exponent, and only their mantissas' ratio goes through the

@@ -309,3 +309,56 @@ func TestZPKOfChainsEqualsNodal(t *testing.T) {
 		}
 	}
 }
+
+// The tone stack of the benchmarks compiled to ZPK equals the nodal solver.
+func TestZPKOfStackEqualsNodal(t *testing.T) {
+	n := stackNetwork()
+	k, err := n.CompileZPK()
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := mustCompile(t, n)
+	for _, f := range LogGrid(10, 100e3, 20) {
+		if d := relDiff(k.Transfer(f), s.Transfer(f)); d > 1e-9 {
+			t.Fatalf("f=%g: differs from the nodal solver by %g", f, d)
+		}
+	}
+}
+
+// Bad networks are errors that say what is wrong, never panics.
+func TestZPKErrors(t *testing.T) {
+	for _, tc := range []struct {
+		name  string
+		build func(n *Network)
+		want  string
+	}{
+		{"no source", func(n *Network) { n.Resistor("R", "a", "out", 1e3); n.SetOutput("out") }, "no source"},
+		{"output is ground", func(n *Network) { n.SetSource("in", 0); n.Resistor("R", "in", "0", 1e3); n.SetOutput("0") }, "ground"},
+		{"floating node", func(n *Network) {
+			n.SetSource("in", 0)
+			n.Resistor("R", "in", "0", 1e3)
+			n.Resistor("R2", "x", "out", 1e3)
+			n.SetOutput("out")
+		}, "floating"},
+		{"output cut off from the source", func(n *Network) {
+			n.SetSource("in", 100)
+			n.Resistor("R", "in", "0", 1e3)
+			n.Resistor("R2", "out", "0", 1e3)
+			n.Capacitor("C", "out", "0", 1e-9)
+			n.SetOutput("out")
+		}, "does not depend on the source"},
+		{"negative part", func(n *Network) {
+			n.SetSource("in", 0)
+			n.Capacitor("C", "in", "out", -1e-9)
+			n.Resistor("R", "out", "0", 1e3)
+			n.SetOutput("out")
+		}, "must be positive"},
+	} {
+		var n Network
+		tc.build(&n)
+		_, err := n.CompileZPK()
+		if err == nil || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("%s: error %v, want one saying %q", tc.name, err, tc.want)
+		}
+	}
+}
