@@ -115,6 +115,80 @@ func (k *ZPK) fit(an *analysis, zs zeroSet, s *Solver) error {
 		k.set(an.poles, zs.sure)
 		return k.calibrate(s, an.s.sigma)
 	}
+	var ws []float64
+	for _, c := range zs.cand {
+		ws = append(ws, cmplx.Abs(c))
+	}
+	for _, p := range an.poles {
+		ws = append(ws, cmplx.Abs(p))
+	}
+	for _, f := range []float64{1e-2, 1e-1, 1, 10, 100, 1e3} {
+		ws = append(ws, an.s.sigma*f)
+	}
+	for _, f := range []float64{10, 100, 1e3, 1e4, 1e5} {
+		ws = append(ws, 2*math.Pi*f)
+	}
+	var pts []fitPoint
+	for _, w := range ws {
+		if !(w > 0) {
+			continue
+		}
+		// The solver's rounding is relative only while its numbers stay
+		// well inside the range of a float64.
+		if h := s.Transfer(w / (2 * math.Pi)); cmplx.Abs(h) > 1e-290 && !cmplx.IsNaN(h) && !cmplx.IsInf(h) {
+			pts = append(pts, fitPoint{w, h})
+		}
+	}
+	best, bestMis := k.choose(an, zs, s, pts)
+	// A zero at infinity of high order spreads into a wide ring that can
+	// swallow finite zeros far from the shift: if the fit is poor, the
+	// zeros are sought again at shifts a decade apart, up to ten times the
+	// fastest pole and down to a tenth of the slowest, and the best fit
+	// is kept.
+	if bestMis > 1e-9 {
+		lo, hi := math.Inf(1), 0.0
+		for _, p := range an.poles {
+			if a := cmplx.Abs(p); a > 1e-9*an.s.sigma {
+				lo, hi = math.Min(lo, a), math.Max(hi, a)
+			}
+		}
+		var shifts []float64
+		for f := 10.0; an.s.sigma*f <= 10*hi && len(shifts) < 12; f *= 10 {
+			shifts = append(shifts, an.s.sigma*f)
+		}
+		for f := 0.1; an.s.sigma*f >= lo/10 && len(shifts) < 24; f /= 10 {
+			shifts = append(shifts, an.s.sigma*f)
+		}
+		for _, sigma := range shifts {
+			red, err := an.p.reduce(an.u, an.v, an.r, sigma)
+			if err != nil {
+				continue
+			}
+			zs2, err := red.zeros()
+			if err != nil {
+				continue
+			}
+			if set, m := k.choose(an, zs2, s, pts); m < bestMis/2 {
+				best, bestMis = set, m
+			}
+		}
+	}
+	k.set(an.poles, best)
+	return k.calibrate(s, an.s.sigma)
+}
+
+// fitPoint is the nodal solver's transfer at an angular frequency.
+type fitPoint struct {
+	w float64
+	h complex128
+}
+
+// choose polishes the candidates of zs and returns the set of zeros, among
+// those that keep the first j candidates for each j that keeps conjugate
+// pairs whole, that fits the solver's points best, with its misfit, the
+// largest |ln(H/H_solver)|; the ring heuristic's j (zs.keep) stands unless
+// another halves its misfit.
+func (k *ZPK) choose(an *analysis, zs zeroSet, s *Solver, pts []fitPoint) ([]complex128, float64) {
 	for i, c := range zs.cand {
 		if imag(c) >= 0 {
 			zs.cand[i] = an.p.polish(c)
@@ -123,26 +197,6 @@ func (k *ZPK) fit(an *analysis, zs zeroSet, s *Solver) error {
 	for i, c := range zs.cand { // conjugates follow their polished partner
 		if imag(c) < 0 && i > 0 && imag(zs.cand[i-1]) > 0 {
 			zs.cand[i] = cmplx.Conj(zs.cand[i-1])
-		}
-	}
-	var ws []float64
-	for _, c := range zs.cand {
-		ws = append(ws, cmplx.Abs(c))
-	}
-	for _, f := range []float64{1e-2, 1e-1, 1, 10, 100, 1e3} {
-		ws = append(ws, an.s.sigma*f)
-	}
-	for _, f := range []float64{10, 100, 1e3, 1e4, 1e5} {
-		ws = append(ws, 2*math.Pi*f)
-	}
-	type point struct {
-		w float64
-		h complex128
-	}
-	var pts []point
-	for _, w := range ws {
-		if h := s.Transfer(w / (2 * math.Pi)); h != 0 && !cmplx.IsNaN(h) && !cmplx.IsInf(h) {
-			pts = append(pts, point{w, h})
 		}
 	}
 	misfit := func(j int) float64 {
@@ -170,8 +224,7 @@ func (k *ZPK) fit(an *analysis, zs zeroSet, s *Solver) error {
 			best, bestMis = j, m
 		}
 	}
-	k.set(an.poles, zs.with(best))
-	return k.calibrate(s, an.s.sigma)
+	return zs.with(best), bestMis
 }
 
 // calibrate sets k from the solver at the reference frequency.

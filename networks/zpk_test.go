@@ -362,3 +362,31 @@ func TestZPKErrors(t *testing.T) {
 		}
 	}
 }
+
+// A known limit of the ZPK form: a blend network ahead of twenty 1 GΩ / 1 F
+// sections (the validator's limits). The transfer has a zero at infinity
+// of order 20, which rounding spreads into a ring of eigenvalues about
+// ε^(1/20) ≈ 0.16 of the shifted matrix's size, and with the poles 18
+// decades apart no shift keeps the blend's zero at −10⁶ rad/s outside it:
+// the zero is lost, and the gain is off by 20·log10|1 + jω/10⁶|, 0.07 dB at
+// 20 kHz. Compiled.GainDB, exact there (TestCompiledGainDBFiniteAtLimits),
+// is the reference; the ZPK form is held to finite gains within 0.1 dB.
+func TestZPKBlendAheadOfDeepLadder(t *testing.T) {
+	c := Chain{
+		Blend: Blend{Lowpass: RC{R: 1e3, C: 1e-9}, Highpass: RC{R: 1e3, C: 1e-9}, Pot: Pot{Value: 1e4, Position: 0}},
+		Load:  Load{R: math.Inf(1)},
+	}
+	for i := 0; i < 20; i++ {
+		c.Filters = append(c.Filters, RC{R: 1e9, C: 1})
+	}
+	z, err := c.Network().CompileZPK()
+	if err != nil {
+		t.Fatal(err)
+	}
+	k := c.Compile()
+	for _, f := range []float64{20, 1000, 20000} {
+		if g := z.GainDB(f); math.IsInf(g, 0) || math.IsNaN(g) || math.Abs(g-k.GainDB(f)) > 0.1 {
+			t.Errorf("at %g Hz: ZPK %.8f dB, two-port %.8f dB", f, g, k.GainDB(f))
+		}
+	}
+}
