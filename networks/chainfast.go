@@ -44,43 +44,45 @@ const rescaleAbove = 0x1p256
 
 // gainDB is GainDB in real arithmetic: the same formulas as
 // Blend.admittances, row.seriesZ and row.shuntY written out on real and
-// imaginary parts, with the constants of gainConsts, one division for the
-// legs' reciprocals and the coupling capacitor's impedance and one for the
-// final ratio. The row is rescaled by powers of two when it grows past
-// rescaleAbove, so the result is finite for any parts a design accepts.
+// imaginary parts, with the constants of gainConsts, and with no division
+// but the final ratio. The legs' node reciprocals ia = conj(Pa)/da and
+// ib = conj(Pb)/db (Pa = pa + j·qa, da = |Pa|², likewise b) are replaced by
+// S·ia = db·conj(Pa) and S·ib = da·conj(Pb) with S = da·db, which scales
+// every Y parameter by S; the row is scaled by W = ω·S², which turns the
+// coupling capacitor's impedance into ω·Zs = ω·R − j/C. A common positive
+// factor of the row leaves |H| = |y12|/|A'| unchanged once undone:
+// |H|² = |S·y12|²·ω²·S²/|W·A'|². The row is rescaled by powers of two when
+// it grows past rescaleAbove, so the result is finite for any parts a
+// design accepts.
 func (k *Compiled) gainDB(f float64) float64 {
 	c := &k.gc
 	w := 2 * math.Pi * f
-	// The legs' output nodes: ia = 1/(pa + j·qa), ib = 1/(pb + j·qb). One
-	// division gives both reciprocals and 1/ω: with da = pa² + qa² and
-	// db = pb² + qb², 1/da = db·ω·t, 1/db = da·ω·t, 1/ω = da·db·t for
-	// t = 1/(da·db·ω) (each factor lies within 10^±40 for the parts a
-	// design accepts, so the product neither overflows nor underflows).
 	qa, qb := w*c.c1, w*c.c2
 	da, db := c.pa*c.pa+qa*qa, c.pb*c.pb+qb*qb
-	t := 1 / (da * db * w)
-	inva, invb := db*w*t, da*w*t
-	zr, zi := k.zsR, -c.invCsrc*(da*db*t) // the coupling capacitor: −j/(ωC)
-	iar, iai := c.pa*inva, -qa*inva
-	ibr, ibi := c.pb*invb, -qb*invb
-	// Y parameters, y2 = j·qb being the high-pass capacitor's admittance:
-	// y11 = g1 + y2 − g1²·ia − y2²·ib, y12 = −g1·ga·ia − y2·gb·ib,
-	// y22 = ga + gb − ga²·ia − gb²·ib.
+	sc := da * db
+	iar, iai := db*c.pa, -db*qa // S·ia
+	ibr, ibi := da*c.pb, -da*qb // S·ib
+	// S times the Y parameters, y2 = j·qb being the high-pass capacitor's
+	// admittance: y11 = g1 + y2 − g1²·ia − y2²·ib,
+	// y12 = −g1·ga·ia − y2·gb·ib, y22 = ga + gb − ga²·ia − gb²·ib.
 	qb2 := qb * qb
-	y11r := c.g1 - c.g1sq*iar + qb2*ibr
-	y11i := qb - c.g1sq*iai + qb2*ibi
+	y11r := sc*c.g1 - c.g1sq*iar + qb2*ibr
+	y11i := sc*qb - c.g1sq*iai + qb2*ibi
 	qgb := qb * c.gb
 	y12r := -c.g1ga*iar + qgb*ibi
 	y12i := -c.g1ga*iai - qgb*ibr
-	y22r := c.ga + c.gb - c.gasq*iar - c.gbsq*ibr
+	y22r := sc*(c.ga+c.gb) - c.gasq*iar - c.gbsq*ibr
 	y22i := -c.gasq*iai - c.gbsq*ibi
-	// The row (y22 + Zs·det Y, 1 + Zs·y11).
+	// W times the row (y22 + Zs·det Y, 1 + Zs·y11):
+	// (ω·S·(S·y22) + ω·Zs·(S²·det Y), ω·S² + ω·Zs·S·(S·y11)).
 	detr := y11r*y22r - y11i*y22i - (y12r*y12r - y12i*y12i)
 	deti := y11r*y22i + y11i*y22r - 2*y12r*y12i
-	ar := y22r + zr*detr - zi*deti
-	ai := y22i + zr*deti + zi*detr
-	br := 1 + zr*y11r - zi*y11i
-	bi := zr*y11i + zi*y11r
+	zr, zi := w*k.zsR, -c.invCsrc
+	ws := w * sc
+	ar := ws*y22r + zr*detr - zi*deti
+	ai := ws*y22i + zr*deti + zi*detr
+	br := ws*sc + sc*(zr*y11r-zi*y11i)
+	bi := sc * (zr*y11i + zi*y11r)
 	e := 0
 	for _, s := range k.filters {
 		br += s.R * ar
@@ -88,7 +90,7 @@ func (k *Compiled) gainDB(f float64) float64 {
 		q := w * s.C
 		ar -= q * bi
 		ai += q * br
-		if math.Abs(ar)+math.Abs(ai)+math.Abs(br)+math.Abs(bi) > rescaleAbove {
+		if math.Abs(ar)+math.Abs(br) > rescaleAbove {
 			ar, ai, br, bi = ar*0x1p-256, ai*0x1p-256, br*0x1p-256, bi*0x1p-256
 			e += 256
 		}
@@ -101,8 +103,12 @@ func (k *Compiled) gainDB(f float64) float64 {
 	}
 	q := w * c.loadC
 	ar, ai = ar+c.loadG*br-q*bi, ai+c.loadG*bi+q*br
-	n := y12r*y12r + y12i*y12i
+	n := (y12r*y12r + y12i*y12i) * (ws * ws)
 	d := ar*ar + ai*ai
+	if !(n > 0x1p-900 && d > 0x1p-900 && d < 0x1p900) {
+		// Far outside the usual range: take the logarithms apart.
+		return 10*(math.Log10(n)-math.Log10(d)) - float64(e)*db2
+	}
 	return 10*math.Log10(n/d) - float64(e)*db2
 }
 
