@@ -116,9 +116,6 @@ func (k *ZPK) fit(an *analysis, zs zeroSet, s *Solver) error {
 		return k.calibrate(s, an.s.sigma)
 	}
 	var ws []float64
-	for _, c := range zs.cand {
-		ws = append(ws, cmplx.Abs(c))
-	}
 	for _, p := range an.poles {
 		ws = append(ws, cmplx.Abs(p))
 	}
@@ -128,24 +125,31 @@ func (k *ZPK) fit(an *analysis, zs zeroSet, s *Solver) error {
 	for _, f := range []float64{10, 100, 1e3, 1e4, 1e5} {
 		ws = append(ws, 2*math.Pi*f)
 	}
+	// The candidates' own frequencies come last: the fit far out there is
+	// judged by the choice of zeros, not by the retry below.
+	core := len(ws)
+	for _, c := range zs.cand {
+		ws = append(ws, cmplx.Abs(c))
+	}
 	var pts []fitPoint
-	for _, w := range ws {
+	for i, w := range ws {
 		if !(w > 0) {
 			continue
 		}
 		// The solver's rounding is relative only while its numbers stay
 		// well inside the range of a float64.
 		if h := s.Transfer(w / (2 * math.Pi)); cmplx.Abs(h) > 1e-290 && !cmplx.IsNaN(h) && !cmplx.IsInf(h) {
-			pts = append(pts, fitPoint{w, h})
+			pts = append(pts, fitPoint{w, h, i < core})
 		}
 	}
-	best, bestMis := k.choose(an, zs, s, pts)
+	best, bestMis, coreMis := k.choose(an, zs, s, pts)
 	// A zero at infinity of high order spreads into a wide ring that can
-	// swallow finite zeros far from the shift: if the fit is poor, the
+	// swallow finite zeros far from the shift: if the fit at the poles,
+	// the shift and the band is poor, the
 	// zeros are sought again at shifts a decade apart, up to ten times the
 	// fastest pole and down to a tenth of the slowest, and the best fit
 	// is kept.
-	if bestMis > 1e-9 {
+	if coreMis > 1e-9 {
 		lo, hi := math.Inf(1), 0.0
 		for _, p := range an.poles {
 			if a := cmplx.Abs(p); a > 1e-9*an.s.sigma {
@@ -168,7 +172,7 @@ func (k *ZPK) fit(an *analysis, zs zeroSet, s *Solver) error {
 			if err != nil {
 				continue
 			}
-			if set, m := k.choose(an, zs2, s, pts); m < bestMis/2 {
+			if set, m, _ := k.choose(an, zs2, s, pts); m < bestMis/2 {
 				best, bestMis = set, m
 			}
 		}
@@ -179,8 +183,9 @@ func (k *ZPK) fit(an *analysis, zs zeroSet, s *Solver) error {
 
 // fitPoint is the nodal solver's transfer at an angular frequency.
 type fitPoint struct {
-	w float64
-	h complex128
+	w    float64
+	h    complex128
+	core bool // a pole's, the shift's or the band's frequency
 }
 
 // choose polishes the candidates of zs and returns the set of zeros, among
@@ -188,7 +193,7 @@ type fitPoint struct {
 // pairs whole, that fits the solver's points best, with its misfit, the
 // largest |ln(H/H_solver)|; the ring heuristic's j (zs.keep) stands unless
 // another halves its misfit.
-func (k *ZPK) choose(an *analysis, zs zeroSet, s *Solver, pts []fitPoint) ([]complex128, float64) {
+func (k *ZPK) choose(an *analysis, zs zeroSet, s *Solver, pts []fitPoint) (set []complex128, misfit, core float64) {
 	for i, c := range zs.cand {
 		if imag(c) >= 0 {
 			zs.cand[i] = an.p.polish(c)
@@ -199,32 +204,36 @@ func (k *ZPK) choose(an *analysis, zs zeroSet, s *Solver, pts []fitPoint) ([]com
 			zs.cand[i] = cmplx.Conj(zs.cand[i-1])
 		}
 	}
-	misfit := func(j int) float64 {
+	fit := func(j int) (all, core float64) {
 		k.set(an.poles, zs.with(j))
 		if k.calibrate(s, an.s.sigma) != nil {
-			return math.Inf(1)
+			return math.Inf(1), math.Inf(1)
 		}
-		var worst float64
 		for _, p := range pts {
 			q, e := k.product(p.w)
 			if k.negK {
 				q = -q
 			}
 			d := cmplx.Log(q/p.h) + complex(k.logK+float64(e)*math.Ln2, 0)
-			worst = math.Max(worst, cmplx.Abs(complex(real(d), math.Remainder(imag(d), 2*math.Pi))))
+			m := cmplx.Abs(complex(real(d), math.Remainder(imag(d), 2*math.Pi)))
+			all = math.Max(all, m)
+			if p.core {
+				core = math.Max(core, m)
+			}
 		}
-		return worst
+		return all, core
 	}
-	best, bestMis := zs.keep, misfit(zs.keep)
+	best := zs.keep
+	misfit, core = fit(best)
 	for j := 0; j <= len(zs.cand); j++ {
 		if j == zs.keep || (j > 0 && j < len(zs.cand) && imag(zs.cand[j]) != 0 && zs.cand[j] == cmplx.Conj(zs.cand[j-1])) {
 			continue
 		}
-		if m := misfit(j); m < bestMis/2 {
-			best, bestMis = j, m
+		if m, c := fit(j); m < misfit/2 {
+			best, misfit, core = j, m, c
 		}
 	}
-	return zs.with(best), bestMis
+	return zs.with(best), misfit, core
 }
 
 // calibrate sets k from the solver at the reference frequency.
