@@ -154,8 +154,9 @@ type analysis struct {
 	p     *pencil
 	u, v  []float64
 	r     int
-	s     *shifted
-	poles []complex128
+	s      *shifted
+	poles  []complex128
+	solver *Solver // the same network's nodal solver
 }
 
 // analyse builds the pencil and reduces it, choosing the shift in two
@@ -168,14 +169,15 @@ func (n *Network) analyse() (*analysis, error) {
 	if err != nil {
 		return nil, err
 	}
-	if _, err := n.Compile(); err != nil { // floating nodes, named
+	solver, err := n.Compile() // also finds floating nodes, named
+	if err != nil {
 		return nil, err
 	}
 	u, v, r, err := p.factorC()
 	if err != nil {
 		return nil, err
 	}
-	an := &analysis{p: p, u: u, v: v, r: r}
+	an := &analysis{p: p, u: u, v: v, r: r, solver: solver}
 	sigma := n.shiftScale()
 	if err := an.at(sigma); err != nil {
 		return nil, err

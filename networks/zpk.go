@@ -44,8 +44,8 @@ func (n *Network) CompileZPK() (*ZPK, error) {
 	return &k, nil
 }
 
-// CompileZPKInto compiles the network into k, reusing k's storage; on error
-// k is left unchanged.
+// CompileZPKInto compiles the network into k, reusing k's storage. After an
+// error k holds nothing usable until it is compiled again.
 func (n *Network) CompileZPKInto(k *ZPK) error {
 	an, err := n.analyse()
 	if err != nil {
@@ -61,10 +61,7 @@ func (n *Network) CompileZPKInto(k *ZPK) error {
 	if err != nil {
 		return err
 	}
-	solver, err := n.Compile()
-	if err != nil {
-		return err
-	}
+	solver := an.solver
 	var next ZPK
 	next.poles, next.zeros = k.poles, k.zeros
 	next.realZ, next.realP, next.pairZ, next.pairP = k.realZ, k.realP, k.pairZ, k.pairP
