@@ -151,9 +151,9 @@ func (n *Network) shiftScale() float64 {
 // analysis is the pencil of a network with its factorisation of C and the
 // reduction at a well-chosen shift.
 type analysis struct {
-	p     *pencil
-	u, v  []float64
-	r     int
+	p      *pencil
+	u, v   []float64
+	r      int
 	s      *shifted
 	poles  []complex128
 	solver *Solver // the same network's nodal solver
