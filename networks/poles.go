@@ -178,6 +178,9 @@ func (n *Network) analyse() (*analysis, error) {
 		return nil, err
 	}
 	an := &analysis{p: p, u: u, v: v, r: r, solver: solver}
+	if p.out < 0 {
+		return an, nil // the output is the ideal source's node: H = 1, no poles
+	}
 	sigma := n.shiftScale()
 	if err := an.at(sigma); err != nil {
 		return nil, err

@@ -49,21 +49,21 @@ func (s *shifted) zeros() (z zeroSet, err error) {
 		bh[i] = s.bk0[i] + s.sigma*s.bk1[i]
 	}
 	if norm2(s.bk1) > 0 {
-		var lu mat.LU
-		lu.Factorize(mat.NewDense(r, r, append([]float64(nil), s.k...)))
-		var x mat.VecDense
-		if err := lu.SolveVecTo(&x, false, mat.NewVecDense(r, append([]float64(nil), s.bk1...))); err != nil {
-			return z, fmt.Errorf("the compiled form cannot represent a node reached through inductors alone beside the ideal source (%v): use the nodal solver", err)
+		x, err := solveMinNorm(s.k, s.bk1, r)
+		if err != nil {
+			return z, err
 		}
 		for i := range bh {
-			bh[i] -= x.AtVec(i)
+			bh[i] -= x[i]
 		}
 	}
-	if hs == 0 || math.IsNaN(hs) {
-		if norm2(s.ck) == 0 || norm2(bh) == 0 {
-			return z, errNoTransfer
-		}
-		return z, fmt.Errorf("the shift σ = %g rad/s is a zero of the transfer", s.sigma)
+	if hs == 0 {
+		// Exactly zero: no path carries the signal (a zero of H that
+		// happened to fall on σ would leave rounding behind).
+		return z, errNoTransfer
+	}
+	if math.IsNaN(hs) || math.IsInf(hs, 0) {
+		return z, fmt.Errorf("the transfer at the shift σ = %g rad/s is %v", s.sigma, hs)
 	}
 	kz := make([]float64, r*r)
 	for i := 0; i < r; i++ {
@@ -176,4 +176,44 @@ func norm2(v []float64) float64 {
 		s += x * x
 	}
 	return math.Sqrt(s)
+}
+
+// solveMinNorm solves K·x = b (K r×r, row-major) by LU, or, when K is
+// singular, which a node reached through inductors alone makes it (a pole
+// at infinity that C's factorisation cannot see), by the pseudo-inverse
+// from the singular value decomposition, singular values below 10⁻¹³ of
+// the largest taken as zero: H being proper, b lies in K's range.
+func solveMinNorm(k, b []float64, r int) ([]float64, error) {
+	km := mat.NewDense(r, r, append([]float64(nil), k...))
+	var lu mat.LU
+	lu.Factorize(km)
+	var x mat.VecDense
+	if lu.Cond() < 1e13 {
+		if err := lu.SolveVecTo(&x, false, mat.NewVecDense(r, append([]float64(nil), b...))); err == nil {
+			return x.RawVector().Data, nil
+		}
+	}
+	var svd mat.SVD
+	if !svd.Factorize(km, mat.SVDThin) {
+		return nil, fmt.Errorf("the singular value decomposition of the reduced pencil did not converge")
+	}
+	var u, v mat.Dense
+	svd.UTo(&u)
+	svd.VTo(&v)
+	sv := svd.Values(nil)
+	out := make([]float64, r)
+	for j, sj := range sv {
+		if !(sj > 1e-13*sv[0]) {
+			break
+		}
+		var c float64
+		for i := 0; i < r; i++ {
+			c += u.At(i, j) * b[i]
+		}
+		c /= sj
+		for i := 0; i < r; i++ {
+			out[i] += v.At(i, j) * c
+		}
+	}
+	return out, nil
 }
