@@ -14,8 +14,9 @@ import (
 // errNoTransfer is returned when the output does not depend on the source.
 var errNoTransfer = errors.New("the output does not depend on the source: no path carries the signal to it")
 
-// zeros returns the finite transmission zeros of the reduced pencil: the
-// finite eigenvalues of the Rosenbrock pencil [[G + sC, −b], [cᵀ, 0]].
+// zeros returns the finite transmission zeros of the reduced pencil, the
+// finite eigenvalues of the Rosenbrock pencil [[G + sC, −b], [cᵀ, 0]], as a
+// zeroSet: those surely finite, and the candidates for zeros at infinity.
 //
 // Method. In the variable λ = 1/(σ − s) the reduction (shifted) is an
 // ordinary state space with a direct term:
@@ -24,17 +25,22 @@ var errNoTransfer = errors.New("the output does not depend on the source: no pat
 //
 // (From [I + (s − σ)K]·z = bk0 + s·bk1 for z = Vᵀx and s − σ = −1/λ:
 // (λI − K)·z = λ·(bk0 + σ·bk1) − bk1, and y = h0 + s·h1 + ck·z/λ; the terms
-// in 1/λ cancel because H is proper.) With the direct term H(σ) ≠ 0 (σ is
-// no zero), the zeros in λ are exactly the eigenvalues of
-// K_z = K − b̂·ck/H(σ), and each maps back to s = σ − 1/λ. A zero of H at
-// infinity of order d is a d-fold eigenvalue λ = 0 of K_z, which rounding
-// spreads into a small cluster of radius about (ε·‖K_z‖)^(1/d)·‖K_z‖^(1−1/d).
-// An eigenvalue is taken for such a zero at infinity when it lies within
+// in 1/λ cancel because H is proper.) With the direct term H(σ) ≠ 0, the
+// zeros in λ are exactly the eigenvalues of K_z = K − b̂·ck/H(σ) (the
+// standard result for a state space with an invertible direct term: they
+// are the poles of 1/H), and each maps back to s = σ − 1/λ.
+//
+// A zero of H at infinity of order d is a d-fold eigenvalue λ = 0 of K_z,
+// which rounding spreads into a ring of radius about ε^(1/d) times K_z's
+// size. An eigenvalue is a candidate for such a zero when it lies within
 // 100 times its own first-order error bound, κ·ε·(‖K‖ + ‖b̂‖·‖ck‖/|H(σ)|)
-// (κ the eigenvalue's
-// condition number from its left and right eigenvectors), of λ = 0: it
-// cannot be told from infinity, and a finite zero that far out
-// (|s| ≳ σ/(100·κ·ε)) changes H in the band by no more than that bound.
+// (κ its condition number from its left and right eigenvectors), of
+// λ = 0: it cannot be told from infinity. Candidates that stand above the
+// rest past a gap of more than a factor 3 in size are judged finite: a
+// finite zero beside the ring has its condition number inflated by it. A
+// near-multiple eigenvalue (multiple) is never a candidate: its condition
+// number says nothing. ZPK.fit settles the candidates against the nodal
+// solver.
 func (s *shifted) zeros() (z zeroSet, err error) {
 	r := s.r
 	hs := s.h0 + s.sigma*s.h1
