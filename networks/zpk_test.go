@@ -446,3 +446,29 @@ func TestZPKDegenerateNetworks(t *testing.T) {
 	}
 	t.Logf("%d of 2000 compiled", compiled)
 }
+
+// A ZPK is a Response: the metrics measure it as they measure a Compiled
+// chain or a Solver.
+var _ Response = (*ZPK)(nil)
+
+// The metrics of a chain measured on its ZPK equal those on the two-port
+// path (the scoop and the corner, metrics.go's definitions).
+func TestZPKMetricsEqualCompiled(t *testing.T) {
+	c := benchChain()
+	z, err := c.Network().CompileZPK()
+	if err != nil {
+		t.Fatal(err)
+	}
+	k := c.Compile()
+	m := NewMeter(DefaultBand)
+	s1, ok1 := m.Scoop(z)
+	s2, ok2 := m.Scoop(k)
+	if ok1 != ok2 || math.Abs(s1.Hz/s2.Hz-1) > 1e-6 || math.Abs(s1.DepthDB-s2.DepthDB) > 1e-6 {
+		t.Errorf("scoop on ZPK %+v (%v), on two-port %+v (%v)", s1, ok1, s2, ok2)
+	}
+	c1, ok1 := m.Corner(z)
+	c2, ok2 := m.Corner(k)
+	if ok1 != ok2 || math.Abs(c1/c2-1) > 1e-6 {
+		t.Errorf("corner on ZPK %g (%v), on two-port %g (%v)", c1, ok1, c2, ok2)
+	}
+}
