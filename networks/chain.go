@@ -44,6 +44,7 @@ type Compiled struct {
 	level        bool
 	la, lb       float64 // level pot: series (wiper to top) and shunt (wiper to ground)
 	loadG, loadC float64
+	gc           gainConsts // GainDB's constants (chainfast.go)
 }
 
 // Compile returns the chain's fast evaluator. The chain's values are not
@@ -68,6 +69,7 @@ func (c *Chain) CompileInto(k *Compiled) {
 	if !math.IsInf(c.Load.R, 1) {
 		k.loadG = 1 / c.Load.R
 	}
+	k.prepare()
 }
 
 // sourceZ returns the source's series impedance at angular frequency w.
@@ -110,21 +112,29 @@ func (k *Compiled) Transfer(f float64) complex128 {
 // GainDB returns 20·log10|V(out)/V(source)| at frequency f. It is the
 // search's inner loop, so it skips the blend matrix's common factor −1/y12:
 // the row (1, Zs) times the blend matrix scaled by −y12 is
-// (y22 + Zs·det Y, 1 + Zs·y11), and |H| = |y12| / |A'|.
-func (k *Compiled) GainDB(f float64) float64 {
-	return 10 * math.Log10(k.Power(f))
-}
+// (y22 + Zs·det Y, 1 + Zs·y11), and |H| = |y12| / |A'|. It is computed in
+// real arithmetic with the parts' conductances prepared at compile time,
+// and stays finite however far down a long ladder takes the gain (see
+// gainDB in chainfast.go).
+func (k *Compiled) GainDB(f float64) float64 { return k.gainDB(f) }
 
 // Power returns |V(out)/V(source)|² at frequency f: GainDB without the
-// logarithm, for scanning.
+// logarithm, for scanning. It may underflow to 0 where GainDB is finite.
 func (k *Compiled) Power(f float64) float64 {
+	n, d, e := k.powerParts(f)
+	return math.Ldexp(n/d, -2*e)
+}
+
+// gainDBComplex is GainDB in the complex two-port arithmetic of Transfer,
+// kept as the reference that gainDB is tested against.
+func (k *Compiled) gainDBComplex(f float64) float64 {
 	w := 2 * math.Pi * f
 	zs := k.sourceZ(w)
 	y11, y12, y22 := k.blend.admittances(w, k.ra, k.rb)
 	r := k.afterBlend(row{y22 + zs*(y11*y22-y12*y12), 1 + zs*y11}, w, true)
 	n := real(y12)*real(y12) + imag(y12)*imag(y12)
 	d := real(r.a)*real(r.a) + imag(r.a)*imag(r.a)
-	return n / d
+	return 10 * math.Log10(n/d)
 }
 
 // InputImpedance returns the impedance the section presents to the source
