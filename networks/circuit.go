@@ -101,15 +101,47 @@ type Evaluator interface {
 }
 
 // Compile returns the design's evaluator at the knob setting s: for the
-// blend form the chain's two-port cascade (Compiled), for any other the
-// nodal solver of its circuit.
+// blend form the chain's two-port cascade (Compiled), for any other its
+// circuit compiled to poles, zeros and gain (ZPK). Both are held to the
+// nodal solver by tests.
 func (d *Design) Compile(s Setting) (Evaluator, error) {
 	s = d.complete(s)
 	if d.Tone.Network == BlendNetwork {
 		c := d.ChainAt(s)
 		return c.Compile(), nil
 	}
-	return d.circuit(s, circuitOptions{}).Compile()
+	n := d.circuit(s, circuitOptions{})
+	solver, err := n.Compile()
+	if err != nil {
+		return nil, err
+	}
+	z, err := n.CompileZPK()
+	if err != nil || !agrees(z, solver, d.Band) {
+		return solver, nil
+	}
+	return z, nil
+}
+
+// ZPKTolerance is how closely, relative, a compiled ZPK must agree with the
+// nodal solver at the check frequencies for Design.Compile to use it.
+const ZPKTolerance = 1e-9
+
+// agrees reports whether z equals the nodal solver within ZPKTolerance,
+// relative, at 13 frequencies spread in log f from band low / 10 to
+// 10 × band high (the range the figures search). Where the poles and zeros
+// found by eigenvalues are not accurate enough (a few networks with parts
+// many decades apart), Design.Compile falls back to the solver, which is
+// exact and slower.
+func agrees(z *ZPK, s *Solver, b Band) bool {
+	lo, hi := math.Log(b.From/10), math.Log(10*b.To)
+	for i := 0; i <= 12; i++ {
+		f := math.Exp(lo + (hi-lo)*float64(i)/12)
+		h, ref := z.Transfer(f), s.Transfer(f)
+		if !(cmplx.Abs(h-ref) <= ZPKTolerance*cmplx.Abs(ref)) {
+			return false
+		}
+	}
+	return true
 }
 
 // Impedances returns the magnitudes of the input and output impedances at

@@ -369,10 +369,27 @@ const (
 	small = 0x1p-300
 )
 
+// Power returns |H(f)|², GainDB without the logarithm, for scanning. Far
+// below or above the range of a float64 it gives 0 or +Inf where GainDB
+// stays finite; the Meter then scans in dB.
+func (k *ZPK) Power(f float64) float64 {
+	w := 2 * math.Pi * f
+	num, den, e := k.mag2Parts(w * w)
+	return math.Ldexp(num/den*math.Exp(2*k.logK), e)
+}
+
 // logMag2 returns ln|H(jω)|² for x = ω².
 func (k *ZPK) logMag2(x float64) float64 {
-	num, den := 1.0, 1.0
-	e := 0
+	num, den, e := k.mag2Parts(x)
+	num, e = renorm(num, e, 1)
+	den, e = renorm(den, e, -1)
+	return math.Log(num/den) + float64(e)*math.Ln2 + 2*k.logK
+}
+
+// mag2Parts returns |H(jω)|²/k² as num/den·2^e for x = ω², num and den
+// kept within 2^±300.
+func (k *ZPK) mag2Parts(x float64) (num, den float64, e int) {
+	num, den = 1.0, 1.0
 	for _, a := range k.realZ {
 		num *= x + a
 		if num > big || num < small {
@@ -399,9 +416,7 @@ func (k *ZPK) logMag2(x float64) float64 {
 			den, e = renorm(den, e, -1)
 		}
 	}
-	num, e = renorm(num, e, 1)
-	den, e = renorm(den, e, -1)
-	return math.Log(num/den) + float64(e)*math.Ln2 + 2*k.logK
+	return num, den, e
 }
 
 // renorm splits a positive normal v into a mantissa in [1, 2) and a power
