@@ -91,7 +91,7 @@ func (d *Design) Validate() error {
 	if !nonNegative(d.Source.SeriesC) {
 		return fieldError("source.series_c", fmt.Errorf("%v F must be zero (none) or positive and finite", d.Source.SeriesC))
 	}
-	if d.Tone.Network != BlendNetwork && d.Tone.Network != NetlistNetwork {
+	if d.Tone.Network != BlendNetwork && d.Tone.Network != NetlistNetwork && d.Tone.topology() == nil {
 		return fieldError("tone.network", fmt.Errorf("unknown network %q: use %s", d.Tone.Network, strings.Join(ToneNetworks(), ", ")))
 	}
 	if len(d.Filters) > MaxFilters {
@@ -109,9 +109,10 @@ func (d *Design) Validate() error {
 			return err
 		}
 		for _, p := range d.Tone.Parts {
-			checks = append(checks, keyed{"tone.parts." + p.Name + "." + p.Kind.key(), p.Value})
+			key := d.Tone.partKey(p)
+			checks = append(checks, keyed{key, p.Value})
 			if err := p.Taper.check(); err != nil {
-				return fieldError("tone.parts."+p.Name+".midpoint", err)
+				return fieldError(strings.TrimSuffix(strings.TrimSuffix(key, ".value"), ".pot")+".midpoint", err)
 			}
 		}
 	}
@@ -160,7 +161,7 @@ func (d *Design) Validate() error {
 	if !nonNegative(d.Load.C) {
 		return fieldError("load.c", fmt.Errorf("%v F must be zero (none) or positive and finite", d.Load.C))
 	}
-	if d.Tone.Network == NetlistNetwork {
+	if d.Tone.Network != BlendNetwork {
 		if _, err := d.Network(nil).Compile(); err != nil {
 			return fieldError("tone.parts", err)
 		}
@@ -194,7 +195,7 @@ func plausible(key string, v float64) error {
 		}
 		return nil
 	}
-	if strings.HasSuffix(key, ".c") || strings.HasSuffix(key, "series_c") {
+	if strings.HasSuffix(key, ".c") || strings.HasSuffix(key, "_c") {
 		if v < MinFarads || v > MaxFarads {
 			return fmt.Errorf("%s F is outside %s–%s F: is the prefix right (p, n, u)?", trimG(v), trimG(MinFarads), trimG(MaxFarads))
 		}

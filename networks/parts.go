@@ -52,7 +52,11 @@ func (d *Design) Parts() []Part {
 		}
 	} else {
 		for _, p := range d.Tone.Parts {
-			ps = append(ps, Part{p.Name, netPartRole(p), p.Kind, p.Value})
+			role := d.Tone.partRole(p.Name)
+			if role == "" {
+				role = netPartRole(p)
+			}
+			ps = append(ps, Part{p.Name, role, p.Kind, p.Value})
 		}
 	}
 	for i, f := range d.Filters {
@@ -97,7 +101,7 @@ func (d *Design) PartValue(name string) (float64, error) {
 // PartRef returns where the design keeps the named part's value, or nil for
 // a name it has no part by. The search writes candidate values through it.
 func (d *Design) PartRef(name string) *float64 {
-	if d.Tone.Network == NetlistNetwork {
+	if d.Tone.Network != BlendNetwork {
 		for i := range d.Tone.Parts {
 			if d.Tone.Parts[i].Name == name {
 				return &d.Tone.Parts[i].Value
