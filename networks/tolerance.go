@@ -133,16 +133,16 @@ type ToleranceSpec struct {
 	// Parts are the parts to vary with their tolerances (PartTolerances
 	// gives every part); the study takes each part's nominal value from the
 	// design, and holds a part not listed at its value.
-	Parts   []PartTolerance
-	Dist    Distribution
-	Trials  int
-	Seed    uint64
-	At      Setting // the knob setting for the gain and the scoop (knobs it leaves out at their positions)
+	Parts  []PartTolerance
+	Dist   Distribution
+	Trials int
+	Seed   uint64
+	At     Setting // the knob setting for the gain and the scoop (knobs it leaves out at their positions)
 	// Tapers is the taper tolerance, a fraction: each knob's share of
 	// the track at its rotation varies by up to ± Tapers of itself (see
 	// DefaultTaperTolerance); 0 holds the tapers exact.
-	Tapers float64
-	Workers int     // goroutines; 0 means runtime.GOMAXPROCS(0)
+	Tapers  float64
+	Workers int // goroutines; 0 means runtime.GOMAXPROCS(0)
 
 	// CurveHz, if set, asks for the percentiles of the gain at these
 	// frequencies, at the setting At (a band around the curve).
