@@ -31,7 +31,9 @@ type panel struct {
 	FreqX, FreqY   bool // label a log axis at 1-2-5 steps in Hz
 	DBY            bool // label the y axis in dB steps
 	TenthsX        bool // label the x axis (a rotation, 0..1) in tenths
+	OhmY           bool // label a log y axis at 1-2-5 steps in Ω
 	LegendBottom   bool
+	LegendRight    bool
 	XMin, XMax     float64
 	YMin, YMax     float64 // the y range when no series has a point (a log axis needs one)
 	Series         []series
@@ -90,6 +92,9 @@ func (f *panels) render(path string, inputs ...string) error {
 		if pn.FreqY {
 			p.Y.Tick.Marker = freqTicks{}
 		}
+		if pn.OhmY {
+			p.Y.Tick.Marker = ohmTicks{}
+		}
 		if pn.DBY {
 			p.Y.Tick.Marker = dbTicks{}
 		}
@@ -106,8 +111,11 @@ func (f *panels) render(path string, inputs ...string) error {
 		if empty && pn.YMax > pn.YMin {
 			p.Y.Min, p.Y.Max = pn.YMin, pn.YMax
 		}
-		p.Legend.Top, p.Legend.Left = !pn.LegendBottom, true
+		p.Legend.Top, p.Legend.Left = !pn.LegendBottom, !pn.LegendRight
 		p.Legend.XOffs, p.Legend.YOffs = vg.Points(8), -vg.Points(4)
+		if pn.LegendRight {
+			p.Legend.XOffs = -vg.Points(8)
+		}
 		if pn.LegendBottom {
 			p.Legend.YOffs = vg.Points(8)
 		}
@@ -169,6 +177,22 @@ func (tenths) Ticks(min, max float64) []plot.Tick {
 		x := float64(i) / 10
 		if x >= min-1e-9 && x <= max+1e-9 {
 			ts = append(ts, plot.Tick{Value: x, Label: fmt.Sprintf("%g", x)})
+		}
+	}
+	return ts
+}
+
+// ohmTicks labels a log axis of resistances at 1-2-5 steps: 10 kΩ, 20 kΩ, …
+type ohmTicks struct{}
+
+func (ohmTicks) Ticks(min, max float64) []plot.Tick {
+	var ts []plot.Tick
+	for e := math.Floor(math.Log10(min)); e <= math.Ceil(math.Log10(max)); e++ {
+		for _, m := range []float64{1, 2, 5} {
+			v := m * math.Pow(10, e)
+			if v >= min && v <= max {
+				ts = append(ts, plot.Tick{Value: v, Label: ohm(v)})
+			}
 		}
 	}
 	return ts
