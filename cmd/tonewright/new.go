@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"fmt"
+	"strings"
 	"text/tabwriter"
 
 	"github.com/spf13/cobra"
@@ -83,7 +84,7 @@ func starterFile(tp *networks.Topology, netlist bool) []byte {
 	d := tp.DefaultDesign()
 	var b bytes.Buffer
 	fmt.Fprintf(&b, "# A starting design for the %s network (tonewright new).\n", tp.Name)
-	fmt.Fprintf(&b, "# %s.\n", tp.Summary)
+	fmt.Fprintf(&b, "# %s%s.\n", strings.ToUpper(tp.Summary[:1]), tp.Summary[1:])
 	b.WriteString("# The part values are invented: they give a sensible curve behind a 10 kΩ\n")
 	b.WriteString("# source into 1 MΩ. Change them, and the source and load, to your board.\n")
 	if netlist {
