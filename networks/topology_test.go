@@ -198,12 +198,45 @@ func TestTopologyClosedForms(t *testing.T) {
 			}
 		}
 	}
+	// Blend-fill at blend 0.5, fill 0 and 0.5 (linear: half the track), with the blend pot made huge
+	// (1 TΩ, so it neither loads the legs nor is loaded): the ideal blend
+	// network's H = ½·[1/(1 + sτ₁) + sτ₂/(1 + sτ₂)] (see
+	// TestIdealBlendClosedForm) with τ₁ = lowpass_r·lowpass_c and the
+	// high-pass leg's resistance grown by the fill pot's segment (share ×
+	// value + 1 Ω end resistance): τ₂ = highpass_c·(highpass_r + fill + 1 Ω). Its notch
+	// lies at 1/(2π√(τ₁τ₂)), 20·log10(2/(r + 1)) below the shoulders,
+	// r = τ₁/τ₂, shallower than at fill 0.
+	bf := ideal(topologies[BlendFillNetwork].DefaultDesign())
+	for i := range bf.Tone.Parts {
+		if bf.Tone.Parts[i].Name == "blend" {
+			bf.Tone.Parts[i].Value = 1e12
+		}
+	}
+	v := parts(bf)
+	t1 := v["lowpass_r"] * v["lowpass_c"]
+	for _, fill := range []float64{0, 0.5} {
+		t2 := v["highpass_c"] * (v["highpass_r"] + EndResistance + fill*v["fill"])
+		e, _ := bf.Compile(Setting{BlendKnob: 0.5, "fill": fill})
+		f0 := 1 / (2 * math.Pi * math.Sqrt(t1*t2))
+		for _, f := range []float64{f0 / 10, f0, 3 * f0} {
+			s := complex(0, 2*math.Pi*f)
+			want := 0.5 * (1/(1+s*complex(t1, 0)) + s*complex(t2, 0)/(1+s*complex(t2, 0)))
+			if d := relDiff(e.Transfer(f), want); d > 1e-6 {
+				t.Errorf("blend-fill, fill %g, %g Hz: differs from the closed form by %g", fill, f, d)
+			}
+		}
+		m := NewMeter(Band{From: f0 / 1e4, To: f0 * 1e4})
+		sc, ok := m.Scoop(e)
+		if want := 20 * math.Log10(2/(t1/t2+1)); !ok || math.Abs(sc.DepthDB-want) > 1e-3 {
+			t.Errorf("blend-fill, fill %g: depth %v dB (found %v), closed form %.4f", fill, sc.DepthDB, ok, want)
+		}
+	}
 	// The treble cut's corner, by the README's definition: 3 dB below the
 	// largest gain, here at the band's low end f₁. With |H|² = 1/(1 + (f/fp)²),
 	// fp = 1/(2πRC): 1 + (f/fp)² = 10^0.3·(1 + (f₁/fp)²), so
 	// f = fp·√(10^0.3·(1 + (f₁/fp)²) − 1).
 	d := ideal(topologies[TrebleCutNetwork].DefaultDesign())
-	v := parts(d)
+	v = parts(d)
 	m := NewMeter(d.Band)
 	for _, k := range []float64{0, 1} {
 		e, _ := d.Compile(Setting{"cut": k})
@@ -232,22 +265,25 @@ func bassTrebleHF(v map[string]float64, a, b float64, solve2 func(a, b, g, p, q 
 	return vo
 }
 
-// Each built-in's netlist, as a SPICE deck, against the ngspice simulator
-// (an outside reference) at its knob ends and centre: within 0.01 dB and
-// 0.1° over the band, with the starting design's 10 kΩ source and 1 MΩ
-// load, plus a coupling capacitor and a load capacitance.
+// Each built-in in its netlist form, as a SPICE deck, against the ngspice
+// simulator (an outside reference) at its knob ends and centre: within
+// 0.01 dB and 0.1° over the band, with the starting design's 10 kΩ source
+// and 1 MΩ load, plus a coupling capacitor and a load capacitance; the
+// built-in form itself is compared, so both forms are held to ngspice.
 func TestTopologiesAgainstNgspice(t *testing.T) {
 	RequireNgspice(t)
 	for _, tp := range Topologies() {
 		d := tp.DefaultDesign()
 		d.Source.SeriesC, d.Load.C = 47e-9, 470e-12
+		nl := d.Clone()
+		nl.Tone = Tone{Network: NetlistNetwork, Parts: d.ToneParts()}
 		ends := []float64{0, 0.5, 1}
 		for j := range ends {
 			s := Setting{} // knob i at ends[(i+j) mod 3]: every knob at each end
 			for i, k := range d.KnobNames() {
 				s[k] = ends[(i+j)%3]
 			}
-			n := d.Network(s)
+			n := nl.Network(s)
 			var deck strings.Builder
 			if err := n.WriteSPICE(&deck, tp.Name, d.Band, 10); err != nil {
 				t.Fatal(err)
