@@ -25,7 +25,7 @@ func ExampleTopologyByName() {
 	fmt.Println(err)
 	// Output:
 	// [cut c series_r] [cut]
-	// cut 0: corner 14620 Hz
+	// cut 0: corner 14592 Hz
 	// cut 1: corner 768 Hz
 	// unknown topology "treble": the built-ins are blend, bass-treble, blend-fill, three-band-stack, tilt, treble-cut
 }
