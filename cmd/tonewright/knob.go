@@ -27,7 +27,8 @@ corner. Then, for each frequency, the range of the gain over the turn and
 the share of the whole change (the sum of the gain's changes, step by
 step) made in the busiest tenth of the turn: 10 % is an even spread, 100 %
 a knob that does everything in one tenth. --plot draws the gain at each
-frequency against rotation, and below it the scoop frequency.`,
+frequency against rotation, and below it the scoop frequency and the
+corner.`,
 		Example: `  tonewright knob cut.yaml --knob cut
   tonewright knob stack.yaml --knob treble --at 100,1k,5k --plot treble.png
   tonewright knob board.yaml --knob blend --json`,
@@ -146,11 +147,14 @@ func otherKnobs(d *networks.Design, name string) []string {
 func knobPlot(d *networks.Design, kt *networks.KnobTurn) *panels {
 	x := make([]float64, len(kt.Steps))
 	scoop := make([]float64, len(kt.Steps))
+	corner := make([]float64, len(kt.Steps))
 	for i, st := range kt.Steps {
-		x[i] = st.Position
-		scoop[i] = math.NaN()
+		x[i], scoop[i], corner[i] = st.Position, math.NaN(), math.NaN()
 		if st.ScoopHz != nil {
 			scoop[i] = *st.ScoopHz
+		}
+		if st.CornerHz != nil {
+			corner[i] = *st.CornerHz
 		}
 	}
 	gain := panel{XLabel: kt.Knob + " (rotation)", YLabel: "gain (dB)", XMin: 0, XMax: 1, DBY: true, TenthsX: true, LegendBottom: true}
@@ -161,17 +165,27 @@ func knobPlot(d *networks.Design, kt *networks.KnobTurn) *panels {
 		}
 		gain.Series = append(gain.Series, series{Label: "at " + hz(f), X: x, Y: y})
 	}
-	label := "scoop (none where the line breaks)"
-	if len(segments(x, scoop)) == 0 {
-		label = ""
+	// The scoop frequency, and the corner beside it (a knob with no scoop
+	// still moves its corner); each line breaks where there is none.
+	fr := panel{XLabel: kt.Knob + " (rotation)", YLabel: "frequency (Hz)", LogY: true, FreqY: true, XMin: 0, XMax: 1, TenthsX: true,
+		YMin: d.Band.From, YMax: d.Band.To, LegendRight: true}
+	for _, s := range []series{{Label: "scoop", X: x, Y: scoop}, {Label: "corner (−3 dB)", X: x, Y: corner}} {
+		if len(segments(s.X, s.Y)) > 0 {
+			fr.Series = append(fr.Series, s)
+		}
 	}
-	sc := panel{XLabel: kt.Knob + " (rotation)", YLabel: "scoop frequency (Hz)", LogY: true, FreqY: true, XMin: 0, XMax: 1, TenthsX: true,
-		YMin: d.Band.From, YMax: d.Band.To, Series: []series{{Label: label, X: x, Y: scoop}}}
-	if label == "" {
-		sc.YLabel = "scoop frequency (Hz): no scoop at any rotation"
+	var missing []string
+	if len(segments(x, scoop)) == 0 {
+		missing = append(missing, "no scoop")
+	}
+	if len(segments(x, corner)) == 0 {
+		missing = append(missing, "no corner")
+	}
+	if len(missing) > 0 {
+		fr.YLabel += ": " + strings.Join(missing, ", ") + " at any rotation"
 	}
 	return &panels{
 		Title:  fmt.Sprintf("%s: turning %s (%s taper)\n%s", designTitle(d), kt.Knob, kt.Taper, describeDesign(d)),
-		Panels: []panel{gain, sc},
+		Panels: []panel{gain, fr},
 	}
 }

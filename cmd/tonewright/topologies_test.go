@@ -152,3 +152,22 @@ func TestStudiesOnBuiltins(t *testing.T) {
 		t.Errorf("tapers alone: %v %+v", err, rep.Gain1kDB)
 	}
 }
+
+// The README's audio-against-linear comparison is the tool's own output.
+func TestReadmeKnobComparison(t *testing.T) {
+	readme := string(mustRead(t, "../../README.md"))
+	for _, f := range []string{"treble-cut-audio.yaml", "treble-cut-linear.yaml"} {
+		code, out, errs := tw(t, "knob", filepath.Join(top, "examples", f), "--knob", "cut", "--at", "1k,5k")
+		if code != 0 {
+			t.Fatal(errs)
+		}
+		i := strings.Index(out, "  frequency")
+		j := strings.Index(out, "\n\nAn even")
+		if i < 0 || j < i {
+			t.Fatalf("%s: no summary in\n%s", f, out)
+		}
+		if sum := out[i:j]; !strings.Contains(readme, "```text\n"+sum+"\n```") {
+			t.Errorf("README lacks the summary of %s:\n%s", f, sum)
+		}
+	}
+}
