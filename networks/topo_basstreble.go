@@ -7,18 +7,14 @@ package networks
 // mixed at the output through an isolating resistor. Each knob at 0 cuts,
 // at 1 boosts, and at the centre the two paths give a flat response
 // when top_r:bottom_r and bass_bottom_c:bass_top_c and
-// treble_bottom_c:treble_top_c are about the same ratio.
+// treble_bottom_c:treble_top_c are about the same ratio (10:1) and the
+// pots are audio taper (10 % of the track at the centre).
 //
-//	in ──top_r── A ─────────────┐
-//	             │              │
-//	         bass_top_c     bass (pot, B→A) ── W ──mix_r── out
-//	             │              │                           │
-//	             W          bass_bottom_c (W–B)             │
-//	                            B                           │
-//	                         bottom_r                       │
-//	                           gnd                          │
-//	in ──treble_top_c── T ──treble (pot, U→T)── wiper: out ─┘
-//	                    U ──treble_bottom_c── gnd
+//	bass:    in ──top_r── A ═══ bass pot ═══ B ──bottom_r── gnd       (track from B, knob 0, to A)
+//	                      A ──bass_top_c── W ──bass_bottom_c── B      (W: the bass pot's wiper)
+//	                                       W ──mix_r── out
+//	treble:  in ──treble_top_c── T ═══ treble pot ═══ U ──treble_bottom_c── gnd
+//	                                   (track from U, knob 0, to T; its wiper is out)
 const BassTrebleNetwork = "bass-treble"
 
 func init() {

@@ -38,6 +38,9 @@ corner.`,
 			if strings.TrimSpace(knob) == "" {
 				return usageErrorf("knob needs the knob to turn: --knob NAME")
 			}
+			if strings.Contains(knob, "=") {
+				return usageErrorf("--knob %q: this command turns the knob through its whole turn: give its name alone, e.g. --knob treble", knob)
+			}
 			var freqs []float64
 			for _, f := range strings.Split(at, ",") {
 				if f = strings.TrimSpace(f); f == "" {
