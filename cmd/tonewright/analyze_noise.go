@@ -13,11 +13,11 @@ import (
 
 // writeNoise prints the thermal noise of the section at each setting.
 func writeNoise(w io.Writer, d *networks.Design, an *networks.Analysis, varied []string) {
-	if len(an.Positions) == 0 || an.Positions[0].Noise == nil {
+	if len(an.Positions) == 0 {
 		return
 	}
 	fmt.Fprintf(w, "\nthermal noise over %s–%s (4kT·Re Z_out, %g K), µV rms; referred: through the loss at 1 kHz\n\n",
-		hz(d.Band.From), hz(d.Band.To), an.Positions[0].Noise.TemperatureK)
+		hz(d.Band.From), hz(d.Band.To), networks.NoiseTemperature)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	head := append(append([]string(nil), varied...), "output", "A-weighted", "referred", "referred A-wtd", "referred A-wtd dBV")
 	fmt.Fprintln(tw, strings.Join(head, "\t")+"\t")
@@ -27,7 +27,15 @@ func writeNoise(w io.Writer, d *networks.Design, an *networks.Analysis, varied [
 			row = append(row, posLabel(p.Knobs[k]))
 		}
 		n := p.Noise
-		row = append(row, uv(n.OutputV), uv(n.OutputAV), uv(n.ReferredV), uv(n.ReferredAV), fmt.Sprintf("%.1f", 20*math.Log10(n.ReferredAV)))
+		if n == nil {
+			row = append(row, "–", "–", "–", "–", "–")
+		} else {
+			dbv := "–"
+			if n.ReferredAV > 0 {
+				dbv = fmt.Sprintf("%.1f", 20*math.Log10(n.ReferredAV))
+			}
+			row = append(row, uv(n.OutputV), uv(n.OutputAV), uv(n.ReferredV), uv(n.ReferredAV), dbv)
+		}
 		fmt.Fprintln(tw, strings.Join(row, "\t")+"\t")
 	}
 	tw.Flush()
