@@ -24,6 +24,7 @@ type PositionMetrics struct {
 	Peak        *Peak    `json:"peak"`  // nil when it has no peak
 	CornerHz    *float64 `json:"corner_hz"`
 	LowCornerHz *float64 `json:"low_corner_hz"`
+	Noise       *Noise   `json:"noise,omitempty"` // the section's thermal noise at this setting (AnalyzeSettings)
 }
 
 // MarshalJSON leaves "blend" out for a setting without a blend knob.
@@ -49,7 +50,8 @@ type Analysis struct {
 	OutputImpedanceOhm float64           `json:"output_impedance_ohm"`
 	ImpedanceBlend     float64           `json:"impedance_blend"` // blend designs
 	ImpedanceKnobs     Setting           `json:"impedance_knobs"`
-	Blend              bool              `json:"-"` // a blend design: CornerHz and ImpedanceBlend apply
+	Impedance          []ImpedanceCurve  `json:"impedance,omitempty"` // over frequency, per setting, when asked for
+	Blend              bool              `json:"-"`                   // a blend design: CornerHz and ImpedanceBlend apply
 }
 
 // MarshalJSON leaves corner_hz and impedance_blend out for designs without
@@ -105,7 +107,8 @@ func Analyze(d *Design, positions []float64) (*Analysis, error) {
 }
 
 // AnalyzeSettings measures a valid design at each knob setting: the gain at
-// 1 kHz, the scoop, the peak, the corner and the low corner; then the
+// 1 kHz, the scoop, the peak, the corner, the low corner and the thermal
+// noise (NoiseAt); then the
 // magnitudes of the input and output impedances at ImpedanceHz with the
 // knobs at the design's own setting (a knob without a position at the
 // centre), and for a blend design the output corner at blend knob 1.
@@ -126,6 +129,9 @@ func AnalyzeSettings(d *Design, settings []Setting) (*Analysis, error) {
 		}
 		pm := MeasureAt(m, e)
 		pm.Knobs, pm.Blend = s, s[BlendKnob]
+		if n, err := d.NoiseAt(s); err == nil {
+			pm.Noise = &n // left out when the noise cannot be computed (a zero gain at 1 kHz)
+		}
 		a.Positions = append(a.Positions, pm)
 	}
 	own, err := d.Setting(nil)

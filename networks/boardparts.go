@@ -6,11 +6,11 @@ package networks
 // impedance and the load belong to the stages before and after, so they
 // are not listed.
 func (d *Design) BoardParts() []Part {
-	var ps []Part
-	if d.Source.SeriesC > 0 {
-		ps = append(ps, Part{Name: "coupling.c", Role: "coupling capacitor", Kind: PartCapacitor, Value: d.Source.SeriesC})
+	ps := d.StudyParts()
+	if d.Load.C > 0 {
+		ps = ps[:len(ps)-1] // the load's capacitance is the cable and the next stage's
 	}
-	return append(ps, d.Parts()...)
+	return ps
 }
 
 // PotTaper returns the taper of the pot part of that name (see Parts), and

@@ -10,7 +10,7 @@ func TestBoardParts(t *testing.T) {
 	d.Source.SeriesC = 100e-9
 	d.Level = &LevelSetting{Pot: PotPart{Value: 100e3, Taper: Taper{Law: Audio}}, Position: 1}
 	ps := d.BoardParts()
-	if ps[0].Name != "coupling.c" || ps[0].Kind != PartCapacitor || ps[0].Value != 100e-9 {
+	if ps[0].Name != "source.series_c" || ps[0].Kind != PartCapacitor || ps[0].Value != 100e-9 {
 		t.Errorf("first part %+v, want the coupling capacitor", ps[0])
 	}
 	if got, want := len(ps), len(d.Parts())+1; got != want {
@@ -29,7 +29,7 @@ func TestBoardParts(t *testing.T) {
 		t.Errorf("lowpass.r has a taper")
 	}
 	d.Source.SeriesC = 0
-	if ps := d.BoardParts(); ps[0].Name == "coupling.c" {
+	if ps := d.BoardParts(); ps[0].Name == "source.series_c" {
 		t.Errorf("a DC-coupled design lists a coupling capacitor")
 	}
 }

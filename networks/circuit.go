@@ -7,7 +7,13 @@ import (
 )
 
 // ToneNetworks returns the names tone.network accepts.
-func ToneNetworks() []string { return []string{BlendNetwork, NetlistNetwork} }
+func ToneNetworks() []string {
+	names := []string{BlendNetwork, NetlistNetwork}
+	for _, t := range Topologies()[1:] {
+		names = append(names, t.Name)
+	}
+	return names
+}
 
 // The chain around any tone network, in the nodes of the circuit a design
 // becomes: the source drives "drive" through its impedance (when there is

@@ -93,7 +93,7 @@ func (d *Design) Validate() error {
 	if !nonNegative(d.Source.SeriesC) {
 		return fieldError("source.series_c", fmt.Errorf("%s must be zero (none) or positive and finite", eseries.WithUnit(d.Source.SeriesC, 3, "F")))
 	}
-	if d.Tone.Network != BlendNetwork && d.Tone.Network != NetlistNetwork {
+	if d.Tone.Network != BlendNetwork && d.Tone.Network != NetlistNetwork && d.Tone.topology() == nil {
 		return fieldError("tone.network", fmt.Errorf("unknown network %q: use %s", d.Tone.Network, strings.Join(ToneNetworks(), ", ")))
 	}
 	if len(d.Filters) > MaxFilters {
@@ -111,9 +111,10 @@ func (d *Design) Validate() error {
 			return err
 		}
 		for _, p := range d.Tone.Parts {
-			checks = append(checks, keyed{"tone.parts." + p.Name + "." + p.Kind.key(), p.Value})
+			key := d.Tone.partKey(p)
+			checks = append(checks, keyed{key, p.Value})
 			if err := p.Taper.check(); err != nil {
-				return fieldError("tone.parts."+p.Name+".midpoint", err)
+				return fieldError(strings.TrimSuffix(strings.TrimSuffix(key, ".value"), ".pot")+".midpoint", err)
 			}
 		}
 	}
@@ -162,7 +163,7 @@ func (d *Design) Validate() error {
 	if !nonNegative(d.Load.C) {
 		return fieldError("load.c", fmt.Errorf("%s must be zero (none) or positive and finite", eseries.WithUnit(d.Load.C, 3, "F")))
 	}
-	if d.Tone.Network == NetlistNetwork {
+	if d.Tone.Network != BlendNetwork {
 		if _, err := d.Network(nil).Compile(); err != nil {
 			return fieldError("tone.parts", err)
 		}
@@ -197,7 +198,7 @@ func unitOfKey(key string) string {
 	if strings.HasSuffix(key, ".l") {
 		return "H"
 	}
-	if strings.HasSuffix(key, ".c") || strings.HasSuffix(key, "series_c") {
+	if strings.HasSuffix(key, ".c") || strings.HasSuffix(key, "_c") {
 		return "F"
 	}
 	return "Ω"

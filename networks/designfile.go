@@ -112,6 +112,9 @@ func (dec *Decoder) tone(n *yaml.Node, path string, t *Tone) error {
 		}
 		return err
 	}
+	if tp := t.topology(); tp != nil {
+		return dec.topoTone(n, path, tp, t)
+	}
 	return dec.Errorf(n, join(path, "network"), "unknown network %q: use %s", t.Network, strings.Join(ToneNetworks(), ", "))
 }
 
@@ -235,7 +238,9 @@ func (d *Design) YAML() []byte {
 	}
 	b.WriteString("}\n")
 	fmt.Fprintf(&b, "tone:\n  network: %s\n", d.Tone.Network)
-	if d.Tone.Network == NetlistNetwork {
+	if tp := d.Tone.topology(); tp != nil {
+		d.Tone.topoYAML(&b, tp)
+	} else if d.Tone.Network == NetlistNetwork {
 		b.WriteString("  parts:\n")
 		for _, p := range d.Tone.Parts {
 			fmt.Fprintf(&b, "    %s: %s\n", p.Name, netPartYAML(p))

@@ -125,6 +125,9 @@ func FuzzParseDesign(f *testing.F) {
 	f.Add([]byte("band: {from: 1e-300, to: 1e300}\ntone: {lowpass: {r: 1k, c: 1u}, highpass: {c: 1p, r: 1G}, pot: {value: 1M, taper: C, midpoint: 0.99}}"))
 	f.Add([]byte("tone:\n  network: netlist\n  parts:\n    R1: {r: 10k, from: in, to: out}\n    C1: {c: 10n, from: out, to: gnd}\n"))
 	f.Add([]byte("source: {impedance: 38k}\ntone:\n  network: netlist\n  parts:\n    C1: {c: 250p, from: in, to: a}\n    t: {pot: 250k, taper: A, from: a, to: c, wiper: out}\n    b: {pot: 1M, from: c, to: d, wiper: d, position: 0.5}\n    g: {pot: 1M, from: d, to: gnd, wiper: d, knob: b, position: 0.5}\n    L1: {l: 500m, from: d, to: gnd}\nlevel: {pot: 100k}\n"))
+	f.Add([]byte("tone:\n  network: treble-cut\n  cut: {value: 250k, taper: audio, position: 0.3}\n  c: 1n\n  series_r: 0\n"))
+	f.Add([]byte("tone:\n  network: blend-fill\n  lowpass: {r: 47k, c: 10n}\n  highpass: {c: 2.2n, r: 27k}\n  pot: 100k\n  fill: {value: 250k, midpoint: 0.2, taper: A}\n"))
+	f.Add([]byte("tone:\n  network: three-band-stack\n  treble: 250k\n  bass: 1M\n  mid: 25k\n  slope_r: 100k\n  treble_c: 220p\n  bass_c: 22n\n  mid_c: 22n\nlevel: {pot: 100k}\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		d, err := ParseDesign(data, "fuzz.yaml")
 		if err != nil {

@@ -24,5 +24,15 @@
 // strictly, reporting the line and key of any error, and WriteYAML writes it
 // back. The metrics the tool reports (gain at 1 kHz, the scoop, the output
 // corner, the impedances) are defined once, in metrics.go, and computed by a
-// Meter; Analyze applies them to a Design at several knob positions.
+// Meter; Analyze applies them to a Design at several knob positions, with
+// the section's thermal noise (NoiseAt: Nyquist's 4kT·Re Z, A-weighted by
+// IEC 61672-1).
+//
+// A design's tone network is the blend network, the netlist form (the
+// designer's own parts between named nodes), or a built-in Topology
+// (blend-fill, treble-cut, bass-treble, three-band-stack, tilt): short keys
+// that expand to the netlist form, so that one circuit model serves them
+// all. The studies (Sweep, Tolerance, Sensitivities, TurnKnob) take any
+// design at any knob setting; they vary StudyParts, which adds the source's
+// coupling capacitor and the load's capacitance to Parts.
 package networks

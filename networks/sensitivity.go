@@ -93,7 +93,8 @@ func (r *SensitivityReport) Ranked(m SensitivityMetric) []PartSensitivity {
 	return out
 }
 
-// Sensitivities measures, for every part of d, the sensitivity of each
+// Sensitivities measures, for every part of d that the studies vary
+// (StudyParts), the sensitivity of each
 // metric (the gain at 1 kHz and the scoop at the setting at, the output
 // corner at blend knob 1 for a blend design, else at at) by central differences with step
 // SensitivityStep in ln(part value).
@@ -108,7 +109,7 @@ func Sensitivities(d *Design, at Setting) (*SensitivityReport, error) {
 	pr := newProbe(d, at)
 	rep := &SensitivityReport{Blend: blendOf(at), Knobs: at, Step: SensitivityStep, Nominal: pr.measure(d).metrics(), Ranking: map[string][]string{}}
 	w := d.Clone()
-	for _, p := range d.Parts() {
+	for _, p := range d.StudyParts() {
 		x := w.PartRef(p.Name)
 		*x = p.Value * math.Exp(SensitivityStep)
 		up := pr.measure(w)

@@ -92,8 +92,8 @@ func TestSensitivityAgreesWithNodalSolver(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(rep.Parts) != len(d.Parts()) {
-		t.Fatalf("%d parts, want %d", len(rep.Parts), len(d.Parts()))
+	if len(rep.Parts) != len(d.StudyParts()) {
+		t.Fatalf("%d parts, want %d", len(rep.Parts), len(d.StudyParts()))
 	}
 	h := SensitivityStep
 	for _, got := range rep.Parts {

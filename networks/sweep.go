@@ -89,13 +89,15 @@ func ptr(v float64) *float64 { return &v }
 // resistance.
 type SweepRow struct {
 	SourceOhm float64   // replaces source.impedance; the coupling capacitor is kept
-	LoadOhm   float64   // replaces load.r (+Inf: open); the load capacitance is kept
+	LoadOhm   float64   // replaces load.r (+Inf: open)
+	LoadC     float64   // replaces load.c when the sweep lists load capacitances, else the design's
 	Metrics   *Analysis // Analyze at the sweep's blend position only
 	Shift     Shift     // from the design's own source and load
 }
 
 // MarshalJSON writes the row with the keys source_ohm, load_ohm (null for an
-// open load, which JSON cannot write as a number), metrics and shift.
+// open load, which JSON cannot write as a number), load_c_farad, metrics
+// and shift.
 func (r SweepRow) MarshalJSON() ([]byte, error) {
 	var load *float64
 	if !math.IsInf(r.LoadOhm, 1) {
@@ -104,9 +106,10 @@ func (r SweepRow) MarshalJSON() ([]byte, error) {
 	return json.Marshal(struct {
 		SourceOhm float64   `json:"source_ohm"`
 		LoadOhm   *float64  `json:"load_ohm"`
+		LoadC     float64   `json:"load_c_farad"`
 		Metrics   *Analysis `json:"metrics"`
 		Shift     Shift     `json:"shift"`
-	}{r.SourceOhm, load, r.Metrics, r.Shift})
+	}{r.SourceOhm, load, r.LoadC, r.Metrics, r.Shift})
 }
 
 // SweepResult is a design measured over a grid of source impedances and
@@ -134,11 +137,25 @@ func Variant(d *Design, sourceOhm, loadOhm float64) *Design {
 // Source impedances must be zero or positive and finite, load resistances
 // positive (+Inf is an open load).
 func Sweep(d *Design, sources, loads []float64, at Setting) (*SweepResult, error) {
+	return SweepLoads(d, sources, loads, nil, at)
+}
+
+// SweepLoads is Sweep with a third list, load capacitances (the cable and
+// the next stage's input), innermost: each replaces load.c (0 is none).
+func SweepLoads(d *Design, sources, loads, loadCs []float64, at Setting) (*SweepResult, error) {
 	if err := d.Validate(); err != nil {
 		return nil, err
 	}
-	if len(sources) == 0 && len(loads) == 0 {
-		return nil, errors.New("nothing to sweep: give source impedances, load resistances or both")
+	if len(sources) == 0 && len(loads) == 0 && len(loadCs) == 0 {
+		return nil, errors.New("nothing to sweep: give source impedances, load resistances, load capacitances or some of them")
+	}
+	for _, c := range loadCs {
+		if !nonNegative(c) || c > MaxFarads {
+			return nil, fmt.Errorf("load capacitance %v F must be zero or positive and at most %v F", c, MaxFarads)
+		}
+	}
+	if len(loadCs) == 0 {
+		loadCs = []float64{d.Load.C}
 	}
 	at, err := d.Setting(at)
 	if err != nil {
@@ -169,11 +186,15 @@ func Sweep(d *Design, sources, loads []float64, at Setting) (*SweepResult, error
 	nm := MetricsOf(nom)
 	for _, s := range sources {
 		for _, l := range loads {
-			a, err := AnalyzeSettings(Variant(d, s, l), pos)
-			if err != nil {
-				return nil, fmt.Errorf("source %s, load %s: %w", eseries.WithUnit(s, 3, "Ω"), eseries.WithUnit(l, 3, "Ω"), err)
+			for _, c := range loadCs {
+				v := Variant(d, s, l)
+				v.Load.C = c
+				a, err := AnalyzeSettings(v, pos)
+				if err != nil {
+					return nil, fmt.Errorf("source %s, load %s, %s: %w", eseries.WithUnit(s, 3, "Ω"), eseries.WithUnit(l, 3, "Ω"), eseries.WithUnit(c, 3, "F"), err)
+				}
+				res.Rows = append(res.Rows, SweepRow{SourceOhm: s, LoadOhm: l, LoadC: c, Metrics: a, Shift: MetricsOf(a).ShiftFrom(nm)})
 			}
-			res.Rows = append(res.Rows, SweepRow{SourceOhm: s, LoadOhm: l, Metrics: a, Shift: MetricsOf(a).ShiftFrom(nm)})
 		}
 	}
 	return res, nil
@@ -191,6 +212,7 @@ type probe struct {
 	lv         Level
 	k0, k1     Compiled // blend designs: at at, at corner
 	e0, e1     Response // the evaluators of the last measurement
+	blend      bool     // a blend design: the corner at blend knob 1
 }
 
 // newProbe returns a probe of designs shaped like d at the setting at: the
@@ -199,9 +221,19 @@ func newProbe(d *Design, at Setting) *probe {
 	at = d.complete(at)
 	p := &probe{m: NewMeter(d.Band), at: at, corner: at}
 	if d.Tone.Network == BlendNetwork {
-		p.corner = at.With(BlendKnob, 1)
+		p.corner, p.blend = at.With(BlendKnob, 1), true
 	}
 	return p
+}
+
+// setKnob puts a knob of the probe's setting at x, for the gain and the
+// scoop and (but for a blend design's blend knob, held at 1) the corner.
+// It writes into the probe's own settings, allocating nothing.
+func (p *probe) setKnob(name string, x float64) {
+	p.at[name] = x
+	if _, ok := p.corner[name]; ok && !(name == BlendKnob && p.blend) {
+		p.corner[name] = x
+	}
 }
 
 // chain sets p.c to d.ChainAt(s), the level pot held in p.lv so that

@@ -102,11 +102,12 @@ type PartTolerance struct {
 	Basis     string  `json:"basis"`     // "E96 value", "resistor default", "given for resistors"
 }
 
-// PartTolerances returns every part of d with its tolerance: the figure in
-// given for its kind if there is one, else DefaultTolerance.
+// PartTolerances returns every part of d that the studies vary
+// (StudyParts) with its tolerance: the figure in given for its kind if
+// there is one, else DefaultTolerance.
 func PartTolerances(d *Design, given map[PartKind]float64) []PartTolerance {
 	var out []PartTolerance
-	for _, p := range d.Parts() {
+	for _, p := range d.StudyParts() {
 		tol, basis := DefaultTolerance(p)
 		if t, ok := given[p.Kind]; ok {
 			tol, basis = t, "given for "+p.Kind.String()+"s"
@@ -132,12 +133,16 @@ type ToleranceSpec struct {
 	// Parts are the parts to vary with their tolerances (PartTolerances
 	// gives every part); the study takes each part's nominal value from the
 	// design, and holds a part not listed at its value.
-	Parts   []PartTolerance
-	Dist    Distribution
-	Trials  int
-	Seed    uint64
-	At      Setting // the knob setting for the gain and the scoop (knobs it leaves out at their positions)
-	Workers int     // goroutines; 0 means runtime.GOMAXPROCS(0)
+	Parts  []PartTolerance
+	Dist   Distribution
+	Trials int
+	Seed   uint64
+	At     Setting // the knob setting for the gain and the scoop (knobs it leaves out at their positions)
+	// Tapers is the taper tolerance, a fraction: each knob's share of
+	// the track at its rotation varies by up to ± Tapers of itself (see
+	// DefaultTaperTolerance); 0 holds the tapers exact.
+	Tapers  float64
+	Workers int // goroutines; 0 means runtime.GOMAXPROCS(0)
 
 	// CurveHz, if set, asks for the percentiles of the gain at these
 	// frequencies, at the setting At (a band around the curve).
@@ -171,6 +176,7 @@ type ToleranceReport struct {
 	Trials  int             `json:"trials"`
 	Seed    uint64          `json:"seed"`
 	Dist    Distribution    `json:"dist"`
+	Tapers  float64         `json:"taper_tolerance"` // a fraction: 0.2 is ± 20 % of the track share
 	Blend   *float64        `json:"blend,omitempty"` // the blend knob, for a blend design
 	Knobs   Setting         `json:"knobs"`
 	Parts   []PartTolerance `json:"parts"`
@@ -210,6 +216,9 @@ func Tolerance(d *Design, spec ToleranceSpec) (*ToleranceReport, error) {
 	if spec.Dist != Uniform && spec.Dist != Normal {
 		return nil, fmt.Errorf("unknown distribution %d", spec.Dist)
 	}
+	if err := CheckTolerance(spec.Tapers); err != nil {
+		return nil, fmt.Errorf("taper %w", err)
+	}
 	if spec.Workers < 0 {
 		return nil, fmt.Errorf("%d workers: give 0 (all cores) or more", spec.Workers)
 	}
@@ -234,6 +243,11 @@ func Tolerance(d *Design, spec ToleranceSpec) (*ToleranceReport, error) {
 		nominal[j], tols[j] = v, p.Tolerance
 	}
 
+	knobs := at.sortedKnobs()
+	tapers := make([]Taper, len(knobs))
+	for k, name := range knobs {
+		tapers[k] = d.knobTaper(name)
+	}
 	n, nf := spec.Trials, len(spec.CurveHz)
 	samples := make([]sample, n)
 	curve := make([]float64, n*nf)
@@ -250,6 +264,14 @@ func Tolerance(d *Design, spec ToleranceSpec) (*ToleranceReport, error) {
 			for j := range ptrs {
 				*ptrs[j] = nominal[j] * (1 + tols[j]*unitDraw(&pcg, rng, spec.Seed, i, j, spec.Dist))
 			}
+			if spec.Tapers > 0 {
+				// Each knob's draw is the stream after the parts', so the
+				// parts' draws do not depend on the taper tolerance.
+				for k, name := range knobs {
+					dev := unitDraw(&pcg, rng, spec.Seed, i, len(ptrs)+k, spec.Dist)
+					pr.setKnob(name, tapers[k].shiftShare(at[name], spec.Tapers, dev))
+				}
+			}
 			samples[i] = pr.measure(w)
 			if nf > 0 {
 				row := curve[i*nf : (i+1)*nf]
@@ -261,7 +283,7 @@ func Tolerance(d *Design, spec ToleranceSpec) (*ToleranceReport, error) {
 	}
 	runTrials(n, spec.Workers, spec.Progress, newTrial)
 
-	rep := &ToleranceReport{Trials: n, Seed: spec.Seed, Dist: spec.Dist, Blend: blendOf(at), Knobs: at, Parts: spec.Parts}
+	rep := &ToleranceReport{Trials: n, Seed: spec.Seed, Dist: spec.Dist, Tapers: spec.Tapers, Blend: blendOf(at), Knobs: at, Parts: spec.Parts}
 	pr := newProbe(d, at)
 	rep.Nominal = pr.measure(d).metrics()
 	vals := make([]float64, 0, n)

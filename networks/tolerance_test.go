@@ -47,8 +47,8 @@ func TestPartTolerancesGiven(t *testing.T) {
 	d := studyDesign()
 	d.Filters[0].R = 4.99e3
 	pts := PartTolerances(d, map[PartKind]float64{PartCapacitor: 0.02})
-	if len(pts) != len(d.Parts()) {
-		t.Fatalf("%d parts, want %d", len(pts), len(d.Parts()))
+	if len(pts) != len(d.StudyParts()) {
+		t.Fatalf("%d parts, want %d", len(pts), len(d.StudyParts()))
 	}
 	for _, p := range pts {
 		var want float64
@@ -343,7 +343,7 @@ func TestToleranceErrors(t *testing.T) {
 	}{
 		{"zero trials", ToleranceSpec{Parts: parts, Trials: 0}, "0 trials"},
 		{"negative trials", ToleranceSpec{Parts: parts, Trials: -3}, "-3 trials"},
-		{"negative tolerance", ToleranceSpec{Parts: neg, Trials: 10}, "part lowpass.r: tolerance -5%"},
+		{"negative tolerance", ToleranceSpec{Parts: neg, Trials: 10}, "part source.series_c: tolerance -5%"},
 		{"unknown part", ToleranceSpec{Parts: []PartTolerance{{Name: "filter9.r"}}, Trials: 10}, `unknown part "filter9.r"`},
 		{"blend", ToleranceSpec{Parts: parts, Trials: 10, At: Setting{BlendKnob: -1}}, "knob blend: position -1 is outside 0..1"},
 		{"workers", ToleranceSpec{Parts: parts, Trials: 10, Workers: -1}, "-1 workers"},

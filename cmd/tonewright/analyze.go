@@ -19,8 +19,8 @@ import (
 func init() { register(newAnalyzeCmd) }
 
 func newAnalyzeCmd(a *app) *cobra.Command {
-	var csvPath string
-	var asJSON bool
+	var csvPath, zPlot string
+	var asJSON, impedance bool
 	var points int
 	kc := knobChoice{flag: "positions"}
 	c := &cobra.Command{
@@ -30,14 +30,19 @@ func newAnalyzeCmd(a *app) *cobra.Command {
 setting, the gain at 1 kHz, the scoop (frequency, depth, balance), the peak,
 and the output corner and low corner; then the input and output impedances
 at 1 kHz with the knobs as designed (a knob without a position at its
-centre). With no --knob the design's swept knob (the blend knob, or the
+centre), and the section's thermal noise at each setting: 4kT·Re Z(f) at
+the output (290 K) integrated over the band, unweighted and A-weighted
+(IEC 61672-1), at the output and referred back through the section's loss
+at 1 kHz. --impedance adds |Z_in| and |Z_out| over the band at each
+setting (--impedance-plot draws them). With no --knob the design's swept knob (the blend knob, or the
 first pot without a position) turns through --positions. The README
 defines every figure.`,
 		Example: `  tonewright analyze board.yaml
   tonewright analyze board.yaml --positions 0,0.5,1 --json
   tonewright analyze stack.yaml --knob treble=0,0.5,1 --knob bass=0.5
   tonewright analyze board.yaml --csv curves.csv
-  tonewright analyze board.yaml --csv - --points 20 | head`,
+  tonewright analyze board.yaml --csv - --points 20 | head
+  tonewright analyze cut.yaml --impedance --impedance-plot z.png`,
 		Args:              exactArgs(1, "DESIGN.yaml"),
 		ValidArgsFunction: yamlFiles,
 		RunE: func(cmd *cobra.Command, args []string) error {
@@ -46,6 +51,12 @@ defines every figure.`,
 			}
 			if err := checkCSVFlags(cmd, csvPath, asJSON); err != nil {
 				return err
+			}
+			if zPlot != "" {
+				if err := checkPlotFlag("impedance-plot", zPlot, args[0]); err != nil {
+					return err
+				}
+				impedance = true
 			}
 			d, err := loadDesign(args[0])
 			if err != nil {
@@ -58,6 +69,20 @@ defines every figure.`,
 			an, err := networks.AnalyzeSettings(d, ss)
 			if err != nil {
 				return badInput(fmt.Errorf("%s: %w", args[0], err))
+			}
+			if impedance {
+				for _, s := range ss {
+					z, err := d.ImpedanceCurveAt(s, impedanceGrid(d.Band))
+					if err != nil {
+						return badInput(fmt.Errorf("%s: %w", args[0], err))
+					}
+					an.Impedance = append(an.Impedance, z)
+				}
+				if zPlot != "" {
+					if err := impedancePlot(d, an).render(zPlot, args[0]); err != nil {
+						return err
+					}
+				}
 			}
 			if csvPath != "" {
 				data, err := curvesCSV(d, ss, points)
@@ -76,6 +101,12 @@ defines every figure.`,
 				return printJSON(a.out, an)
 			}
 			writeAnalysis(a.out, d, an)
+			if impedance {
+				writeImpedance(a.out, d, an)
+			}
+			if zPlot != "" {
+				fmt.Fprintf(a.out, "\nimpedance plot written to %s\n", zPlot)
+			}
 			if csvPath != "" {
 				fmt.Fprintf(a.out, "\ncurves written to %s\n", csvPath)
 			}
@@ -85,8 +116,10 @@ defines every figure.`,
 	c.Flags().StringVar(&kc.positions, "positions", "0,0.25,0.5,0.75,1", "positions of the swept knob (the blend knob: 0 low-pass end, 1 high-pass end)")
 	addKnobFlag(c, &kc, true)
 	c.Flags().BoolVar(&asJSON, "json", false, "print the analysis as JSON")
-	c.Flags().StringVar(&csvPath, "csv", "", "write the curves (frequency, then magnitude dB and phase ° per position) to `FILE` (- for standard output, instead of the table)")
+	c.Flags().StringVar(&csvPath, "csv", "", "write the curves (frequency, then magnitude dB and phase ° per setting) to `FILE` (- for standard output, instead of the table)")
 	c.Flags().IntVar(&points, "points", 100, "points per decade in the --csv output (needs --csv)")
+	c.Flags().BoolVar(&impedance, "impedance", false, "add the input and output impedances over the band at each setting (JSON: impedance)")
+	c.Flags().StringVar(&zPlot, "impedance-plot", "", "draw |Z_in| and |Z_out| against frequency at each setting to `FILE` (.png or .svg); implies --impedance")
 	return c
 }
 
@@ -201,6 +234,7 @@ func writeAnalysis(w io.Writer, d *networks.Design, an *networks.Analysis) {
 	}
 	fmt.Fprintf(w, "input impedance (1 kHz, %s):  %s\n", at, ohm(an.InputImpedanceOhm))
 	fmt.Fprintf(w, "output impedance (1 kHz, %s): %s\n", at, ohm(an.OutputImpedanceOhm))
+	writeNoise(w, d, an, varied)
 }
 
 // curvesCSV tabulates magnitude and phase at each setting over the band.

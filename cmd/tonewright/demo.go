@@ -95,7 +95,7 @@ func runDemo(a *app, dir string) error {
 	}
 	writeSweep(&sweep, d, sw)
 	tr, err := networks.Tolerance(d, networks.ToleranceSpec{
-		Parts: networks.PartTolerances(d, nil), Trials: 10000, Seed: 1, At: networks.Setting{networks.BlendKnob: networks.DefaultStudyBlend},
+		Parts: networks.PartTolerances(d, nil), Trials: 10000, Seed: 1, Tapers: networks.DefaultTaperTolerance, At: networks.Setting{networks.BlendKnob: networks.DefaultStudyBlend},
 		CurveHz: networks.LogGrid(d.Band.From, d.Band.To, 40),
 	})
 	if err != nil {
@@ -126,7 +126,7 @@ func runDemo(a *app, dir string) error {
 	if err := phase.render(path("curves-phase.svg")); err != nil {
 		return err
 	}
-	if err := sweepPlot(d, sw, true, false).render(path("sweep.png")); err != nil {
+	if err := sweepPlot(d, sw, true, false, false).render(path("sweep.png")); err != nil {
 		return err
 	}
 	if err := tolerancePlot(d, tr).render(path("tolerance.png")); err != nil {

@@ -16,7 +16,7 @@ func TestPartsTable(t *testing.T) {
 	golden(t, "parts-demo.txt", out)
 	for _, want := range []string{
 		"11 parts on 9 lines",
-		"coupling.c",          // the coupling capacitor is listed
+		"source.series_c",          // the coupling capacitor is listed
 		"audio (A)",           // the level pot with its taper and code
 		"filter1.r filter2.r", // identical values share a line
 		"caution: Voltage ratings are not listed", // the valve-circuit caution
@@ -85,7 +85,7 @@ func TestPartsCSVAndJSON(t *testing.T) {
 	if last.Kind != "pot" || last.Taper == nil || *last.Taper != "audio" || *last.TaperCode != "A" || last.TolerancePct != 20 {
 		t.Errorf("level pot line %+v", last)
 	}
-	if v.Lines[0].Parts[0].Name != "coupling.c" || v.Lines[0].Marking != "100 nF" || v.Lines[0].Taper != nil {
+	if v.Lines[0].Parts[0].Name != "source.series_c" || v.Lines[0].Marking != "100 nF" || v.Lines[0].Taper != nil {
 		t.Errorf("first line %+v, want the 100 nF coupling capacitor", v.Lines[0])
 	}
 

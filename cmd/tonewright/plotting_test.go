@@ -60,7 +60,7 @@ func TestPlotCurvesDistinct(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	b := sweepPlot(d, res, true, true)
+	b := sweepPlot(d, res, true, true, false)
 	if !b.usesColorMap() {
 		t.Errorf("a sweep of 30 rows uses a legend")
 	}

@@ -148,7 +148,7 @@ func TestToleranceWorkersSameReport(t *testing.T) {
 }
 
 func TestToleranceZeroFlags(t *testing.T) {
-	code, out, errs := tw(t, "tolerance", demoFile, "--trials", "50", "--resistors", "0", "--capacitors", "0%", "--pots", "0 %", "--json")
+	code, out, errs := tw(t, "tolerance", demoFile, "--trials", "50", "--resistors", "0", "--capacitors", "0%", "--pots", "0 %", "--tapers", "0", "--json")
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
@@ -190,14 +190,15 @@ func TestSensitivityOutput(t *testing.T) {
 	if err := json.Unmarshal([]byte(out), &v); err != nil {
 		t.Fatal(err)
 	}
-	if v.Blend != 0.8 || v.Step != 1e-3 || len(v.Parts) != 10 {
+	// The demo's ten parts and its coupling capacitor, source.series_c.
+	if v.Blend != 0.8 || v.Step != 1e-3 || len(v.Parts) != 11 {
 		t.Errorf("blend %v step %v, %d parts", v.Blend, v.Step, len(v.Parts))
 	}
 	for _, k := range []string{"scoop_hz_pct_per_pct", "depth_db_per_pct", "balance_db_per_pct", "corner_pct_per_pct", "gain_1k_db_per_pct"} {
 		if _, ok := v.Parts[0][k]; !ok {
 			t.Errorf("part lacks %s: %v", k, v.Parts[0])
 		}
-		if len(v.Ranking[k]) != 10 {
+		if len(v.Ranking[k]) != 11 {
 			t.Errorf("ranking %s: %v", k, v.Ranking[k])
 		}
 	}
@@ -212,7 +213,7 @@ func TestStudiesBadInput(t *testing.T) {
 		args []string
 		want string
 	}{
-		{[]string{"sweep", demoFile}, "--source, --load or both"},
+		{[]string{"sweep", demoFile}, "--source, --load, --load-c or some of them"},
 		{[]string{"sweep", demoFile, "--source", ""}, "--source: the list is empty"},
 		{[]string{"sweep", demoFile, "--source", " , "}, "--source: the list is empty"},
 		{[]string{"sweep", demoFile, "--load", ""}, "--load: the list is empty"},

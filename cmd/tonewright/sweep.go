@@ -17,7 +17,7 @@ import (
 func init() { register(newSweepCmd) }
 
 func newSweepCmd(a *app) *cobra.Command {
-	var sources, loads, plotPath string
+	var sources, loads, loadCs, plotPath string
 	var blend float64
 	kc := knobChoice{flag: "blend"}
 	var asJSON bool
@@ -29,21 +29,30 @@ resistance given (every combination: sources outer, loads inner) and prints
 the gain at 1 kHz and the scoop at the chosen blend knob position, the
 output corner (blend designs: at knob 1), and how far each lies from the design's own values.
 A source value replaces source.impedance (the coupling capacitor stays); a
-load value replaces load.r (the load capacitance stays). Give --source,
---load or both; the one left out stays as the design has it.
+load value replaces load.r; a --load-c value replaces load.c, the
+capacitance of the cable and the next stage's input (the classic way a
+high-impedance output gets dull). Give any of --source, --load and
+--load-c; one left out stays as the design has it.
 
 Shifts: frequencies in percent, 100·(f/f_design - 1); levels in dB,
 value - value_design.`,
 		Example: `  tonewright sweep board.yaml --source 100,1k,4.7k,22k
   tonewright sweep board.yaml --source 1k,10k --load 100k,1M,open --blend 0.3
-  tonewright sweep board.yaml --load 250k,1M --plot loads.png --json`,
+  tonewright sweep board.yaml --load 250k,1M --plot loads.png --json
+  tonewright sweep cut.yaml --load-c 0,470p,1n,2.2n --knob cut=0`,
 		Args: exactArgs(1, "DESIGN.yaml"),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			var srcs, lds []float64
 			var err error
-			haveSrc, haveLoad := cmd.Flags().Changed("source"), cmd.Flags().Changed("load")
-			if !haveSrc && !haveLoad {
-				return usageErrorf("sweep needs --source, --load or both: comma-separated values such as --source 100,1k,4.7k,22k")
+			haveSrc, haveLoad, haveC := cmd.Flags().Changed("source"), cmd.Flags().Changed("load"), cmd.Flags().Changed("load-c")
+			if !haveSrc && !haveLoad && !haveC {
+				return usageErrorf("sweep needs --source, --load, --load-c or some of them: comma-separated values such as --source 100,1k,4.7k,22k")
+			}
+			var caps []float64
+			if haveC {
+				if caps, err = parseCapacitances("load-c", loadCs); err != nil {
+					return err
+				}
 			}
 			if haveSrc {
 				if srcs, err = parseImpedances("source", sources, false); err != nil {
@@ -72,19 +81,20 @@ value - value_design.`,
 			if err != nil {
 				return err
 			}
-			res, err := networks.Sweep(d, srcs, lds, at)
+			res, err := networks.SweepLoads(d, srcs, lds, caps, at)
 			if err != nil {
 				return badInput(fmt.Errorf("%s: %w", args[0], err))
 			}
 			return a.deliver(studyOutput{
 				plotPath: plotPath, input: args[0], asJSON: asJSON, value: res,
-				plot: func() *bode { return sweepPlot(d, res, haveSrc, haveLoad) },
+				plot: func() *bode { return sweepPlot(d, res, haveSrc, haveLoad, haveC) },
 				text: func(w io.Writer) { writeSweep(w, d, res) },
 			})
 		},
 	}
 	c.Flags().StringVar(&sources, "source", "", "source impedances to try, a comma-separated `LIST` (100,1k,4.7k,22k; 0 is an ideal source)")
 	c.Flags().StringVar(&loads, "load", "", "load resistances to try, a comma-separated `LIST` (100k,1M; open for none)")
+	c.Flags().StringVar(&loadCs, "load-c", "", "load capacitances to try (cable and next stage), a comma-separated `LIST` (0,470p,1n,2.2n)")
 	c.Flags().Float64Var(&blend, "blend", networks.DefaultStudyBlend, "blend knob position for the gain and the scoop, 0 (low-pass end) to 1 (high-pass end); for another design, its swept knob")
 	addKnobFlag(c, &kc, false)
 	c.Flags().StringVar(&plotPath, "plot", "", "draw the curves at the blend position, one per value, to `FILE` (.png or .svg)")
@@ -168,10 +178,23 @@ func writeSweep(w io.Writer, d *networks.Design, res *networks.SweepResult) {
 	fmt.Fprintf(w, "%s: %s; %s\n", designTitle(d), describeDesign(d), studyLabel(d, res.Knobs))
 	fmt.Fprintf(w, "design's own: %s\n\n", metricsLine(nom, d))
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, "source\tload\tgain 1 kHz\tΔ dB\tscoop at\tΔ %\tdepth\tΔ dB\tbalance\tΔ dB\tcorner\tΔ %\t")
+	// The load capacitance has a column when the sweep changes it.
+	withC := false
+	for _, r := range res.Rows {
+		withC = withC || r.LoadC != d.Load.C
+	}
+	cols := "source\tload\t"
+	if withC {
+		cols += "load C\t"
+	}
+	fmt.Fprintln(tw, cols+"gain 1 kHz\tΔ dB\tscoop at\tΔ %\tdepth\tΔ dB\tbalance\tΔ dB\tcorner\tΔ %\t")
 	for _, r := range res.Rows {
 		m := networks.MetricsOf(r.Metrics)
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t", ohm(r.SourceOhm), loadLabel(r.LoadOhm), db(m.Gain1kDB), shiftDB(&r.Shift.Gain1kDB))
+		fmt.Fprintf(tw, "%s\t%s\t", ohm(r.SourceOhm), loadLabel(r.LoadOhm))
+		if withC {
+			fmt.Fprintf(tw, "%s\t", capLabel(r.LoadC))
+		}
+		fmt.Fprintf(tw, "%s\t%s\t", db(m.Gain1kDB), shiftDB(&r.Shift.Gain1kDB))
 		if m.Scoop != nil {
 			fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t", hz(m.Scoop.Hz), shiftPct(r.Shift.ScoopHzPct), db(m.Scoop.DepthDB), shiftDB(r.Shift.DepthDB), db(m.Scoop.BalanceDB), shiftDB(r.Shift.BalanceDB))
 		} else {
@@ -206,8 +229,8 @@ func metricsLine(m networks.StudyMetrics, d *networks.Design) string {
 
 // sweepPlot overlays the curves at the sweep's blend position, one per row,
 // with the design's own curve dashed.
-func sweepPlot(d *networks.Design, res *networks.SweepResult, bySource, byLoad bool) *bode {
-	label := func(src, load float64) string {
+func sweepPlot(d *networks.Design, res *networks.SweepResult, bySource, byLoad, byC bool) *bode {
+	label := func(src, load, c float64) string {
 		var parts []string
 		if bySource {
 			parts = append(parts, "source "+ohm(src))
@@ -215,63 +238,115 @@ func sweepPlot(d *networks.Design, res *networks.SweepResult, bySource, byLoad b
 		if byLoad {
 			parts = append(parts, "load "+loadLabel(load))
 		}
+		if byC {
+			parts = append(parts, "load C "+capLabel(c))
+		}
 		return strings.Join(parts, ", ")
 	}
-	what := "load resistance"
-	switch {
-	case bySource && byLoad:
-		what = "source impedance and load resistance"
-	case bySource:
-		what = "source impedance"
+	var whats []string
+	if bySource {
+		whats = append(whats, "source impedance")
 	}
+	if byLoad {
+		whats = append(whats, "load resistance")
+	}
+	if byC {
+		whats = append(whats, "load capacitance")
+	}
+	what := strings.Join(whats, ", ")
 	b := &bode{
 		Title:   designTitle(d) + ": " + studyLabel(d, res.Knobs),
 		Caption: "sweep of the " + what + "; dashed black: the design as it is",
 		Range:   d.Band,
 	}
 	// The curves are a family ordered by the swept value: coloured by the
-	// dimension with more values (sources on a tie), styled by the other.
-	var srcs, loads []float64
-	for _, r := range res.Rows {
-		if !slices.Contains(srcs, r.SourceOhm) {
-			srcs = append(srcs, r.SourceOhm)
+	// swept dimension with the most values (the earlier on a tie: source,
+	// load, load capacitance), styled by the others.
+	type dim struct {
+		on     bool
+		title  string
+		vals   []float64
+		of     func(r networks.SweepRow) float64
+		name   func(v float64) string
+		prefix string
+	}
+	dims := []*dim{
+		{on: bySource, title: "source impedance", of: func(r networks.SweepRow) float64 { return r.SourceOhm }, name: ohm, prefix: "source "},
+		{on: byLoad, title: "load resistance", of: func(r networks.SweepRow) float64 { return r.LoadOhm }, name: loadLabel, prefix: "load "},
+		{on: byC, title: "load capacitance", of: func(r networks.SweepRow) float64 { return r.LoadC }, name: capLabel, prefix: "load C "},
+	}
+	var colour *dim
+	for _, dm := range dims {
+		for _, r := range res.Rows {
+			if v := dm.of(r); !slices.Contains(dm.vals, v) {
+				dm.vals = append(dm.vals, v)
+			}
 		}
-		if !slices.Contains(loads, r.LoadOhm) {
-			loads = append(loads, r.LoadOhm)
+		if dm.on && (colour == nil || len(dm.vals) > len(colour.vals)) {
+			colour = dm
 		}
 	}
-	bySourceColour := bySource && (!byLoad || len(srcs) >= len(loads))
 	var names []string
-	if bySourceColour {
-		for _, s := range srcs {
-			names = append(names, ohm(s))
-		}
-		b.Scale = rankScale("source impedance", names)
-	} else {
-		for _, l := range loads {
-			names = append(names, loadLabel(l))
-		}
-		b.Scale = rankScale("load resistance", names)
+	for _, v := range colour.vals {
+		names = append(names, colour.name(v))
 	}
+	b.Scale = rankScale(colour.title, names)
 	for _, r := range res.Rows {
-		c := designCurves(networks.Variant(d, r.SourceOhm, r.LoadOhm), []networks.Setting{res.Knobs}, false)[0]
-		c.Label = label(r.SourceOhm, r.LoadOhm)
-		si, li := slices.Index(srcs, r.SourceOhm), slices.Index(loads, r.LoadOhm)
-		switch {
-		case bySourceColour && byLoad:
-			c.Order, c.Style, c.StyleLabel = float64(si), li, "load "+loadLabel(r.LoadOhm)
-		case bySourceColour:
-			c.Order = float64(si)
-		case bySource:
-			c.Order, c.Style, c.StyleLabel = float64(li), si, "source "+ohm(r.SourceOhm)
-		default:
-			c.Order = float64(li)
+		v := networks.Variant(d, r.SourceOhm, r.LoadOhm)
+		v.Load.C = r.LoadC
+		c := designCurves(v, []networks.Setting{res.Knobs}, false)[0]
+		c.Label = label(r.SourceOhm, r.LoadOhm, r.LoadC)
+		c.Order = float64(slices.Index(colour.vals, colour.of(r)))
+		style, stride := 0, 1
+		var styleLabel []string
+		for _, dm := range dims {
+			if !dm.on || dm == colour {
+				continue
+			}
+			style += stride * slices.Index(dm.vals, dm.of(r))
+			stride *= len(dm.vals)
+			styleLabel = append(styleLabel, dm.prefix+dm.name(dm.of(r)))
+		}
+		if len(styleLabel) > 0 {
+			c.Style, c.StyleLabel = style, strings.Join(styleLabel, ", ")
 		}
 		b.Curves = append(b.Curves, c)
 	}
 	own := designCurves(d, []networks.Setting{res.Knobs}, false)[0]
-	own.Label = "design: " + label(d.Source.Impedance, d.Load.R)
+	own.Label = "design: " + label(d.Source.Impedance, d.Load.R, d.Load.C)
 	own.Dash, own.Color, own.Family = true, color.Black, false
 	b.Curves = append(b.Curves, own)
 	return b
+}
+
+// parseCapacitances reads a comma-separated list of capacitances for a
+// flag, zero or more.
+func parseCapacitances(flag, s string) ([]float64, error) {
+	var out []float64
+	for _, f := range strings.Split(s, ",") {
+		f = strings.TrimSpace(f)
+		if f == "" {
+			continue
+		}
+		v, err := flagValue(flag, f, "F")
+		if err != nil {
+			return nil, err
+		}
+		if v < 0 || v > networks.MaxFarads {
+			return nil, usageErrorf("--%s: %q is not a usable capacitance: give values from 0 such as 0,470p,1n,2.2n", flag, f)
+		}
+		out = append(out, v)
+	}
+	if len(out) == 0 {
+		return nil, usageErrorf("--%s: the list is empty: give capacitances such as 0,470p,1n,2.2n, separated by commas", flag)
+	}
+	return out, nil
+}
+
+// capLabel names a load capacitance, none included.
+func capLabel(c float64) string {
+	if c == 0 {
+		return "none"
+	}
+	return withUnit(c, 3, "F")
 }

@@ -18,7 +18,7 @@ import (
 func init() { register(newToleranceCmd) }
 
 func newToleranceCmd(a *app) *cobra.Command {
-	var resistors, capacitors, pots, dist, plotPath string
+	var resistors, capacitors, pots, tapers, dist, plotPath string
 	var trials, workers int
 	var seed uint64
 	var blend float64
@@ -36,7 +36,11 @@ scoop.
 A part's tolerance, unless its kind is given by a flag: the smaller of its
 kind's (resistors 5 %, capacitors 10 %, pots 20 %; common practice) and the
 tolerance of the coarsest E-series that holds its value (a 4.99k resistor is
-in E96 only, so 1 %). --dist uniform draws within ± the tolerance;
+in E96 only, so 1 %). The parts are every part of the design plus the
+source's coupling capacitor (source.series_c) and the load's capacitance
+(load.c) when it has them. Each pot's taper varies too: at its knob's
+rotation the share of the track on the wiper's shorter side moves by up to
+± --tapers of itself (default 20 %, common practice). --dist uniform draws within ± the tolerance;
 --dist normal takes the tolerance as 3σ and draws again beyond it.
 
 Percentiles interpolate linearly between the sorted trials (type 7). The
@@ -59,6 +63,10 @@ trials run on all cores; the report depends on --seed only.`,
 					return err
 				}
 				given[f.kind] = t
+			}
+			taperTol, err := parseTolerance("tapers", tapers)
+			if err != nil {
+				return err
 			}
 			if trials < 1 || trials > networks.MaxTrials {
 				return usageErrorf("--trials: %d trials: give a whole number from 1 to %d", trials, networks.MaxTrials)
@@ -89,7 +97,7 @@ trials run on all cores; the report depends on --seed only.`,
 			}
 			spec := networks.ToleranceSpec{
 				Parts: networks.PartTolerances(d, given), Dist: ds,
-				Trials: trials, Seed: seed, At: at, Workers: workers,
+				Trials: trials, Seed: seed, At: at, Workers: workers, Tapers: taperTol,
 			}
 			if plotPath != "" {
 				spec.CurveHz = networks.LogGrid(d.Band.From, d.Band.To, 40)
@@ -121,6 +129,7 @@ trials run on all cores; the report depends on --seed only.`,
 	c.Flags().StringVar(&resistors, "resistors", "", "tolerance of every resistor in `PERCENT`, e.g. 5% or 1% (default: from its E-series, else 5%)")
 	c.Flags().StringVar(&capacitors, "capacitors", "", "tolerance of every capacitor in `PERCENT`, e.g. 10% (default: from its E-series, else 10%)")
 	c.Flags().StringVar(&pots, "pots", "", "tolerance of every pot's track in `PERCENT`, e.g. 20% (default 20%)")
+	c.Flags().StringVar(&tapers, "tapers", "20%", "taper tolerance in `PERCENT`: how far each pot's share of the track at its rotation may stray, of itself (0 for exact tapers)")
 	c.Flags().IntVar(&trials, "trials", 10000, "number of simulated builds")
 	c.Flags().Uint64Var(&seed, "seed", 1, "seed of the random draws; the same seed gives the same report")
 	c.Flags().StringVar(&dist, "dist", "uniform", "distribution `NAME` of the draws: uniform (within ± tolerance) or normal (tolerance = 3σ, truncated)")
@@ -164,6 +173,9 @@ func writeTolerance(w io.Writer, d *networks.Design, rep *networks.ToleranceRepo
 	for _, p := range rep.Parts {
 		unit := map[string]string{"resistor": "Ω", "capacitor": "F", "pot": "Ω"}[p.Kind]
 		fmt.Fprintf(tw, "%s\t%s\t± %s\t%s\n", p.Name, withUnit(p.Value, 3, unit), pct(p.Tolerance), p.Basis)
+	}
+	if rep.Tapers > 0 {
+		fmt.Fprintf(tw, "every knob's taper\tshare at its rotation\t± %s\tof the shorter side's share\n", pct(rep.Tapers))
 	}
 	tw.Flush()
 	fmt.Fprintln(w)

@@ -1,0 +1,199 @@
+package main
+
+import (
+	"bytes"
+	"fmt"
+	"image/color"
+	"math"
+	"path/filepath"
+	"strings"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+	"gonum.org/v1/plot/vg/vgimg"
+	"gonum.org/v1/plot/vg/vgsvg"
+)
+
+// panels is a figure of plots stacked one above the other that share
+// nothing but the page: the impedance and knob-turn plots. (The Bode plot
+// has its own renderer, bode.)
+type panels struct {
+	Title  string
+	Panels []panel
+}
+
+// panel is one plot of a panels figure.
+type panel struct {
+	XLabel, YLabel string
+	LogX, LogY     bool
+	FreqX, FreqY   bool // label a log axis at 1-2-5 steps in Hz
+	DBY            bool // label the y axis in dB steps
+	TenthsX        bool // label the x axis (a rotation, 0..1) in tenths
+	OhmY           bool // label a log y axis at 1-2-5 steps in Ω
+	LegendBottom   bool
+	LegendRight    bool
+	XMin, XMax     float64
+	YMin, YMax     float64 // the y range when no series has a point (a log axis needs one)
+	Series         []series
+}
+
+// series is one line of a panel; NaN values break it.
+type series struct {
+	Label string
+	X, Y  []float64
+}
+
+// segments splits x, y at NaN values into runs to draw as lines.
+func segments(x, y []float64) []plotter.XYs {
+	var out []plotter.XYs
+	var cur plotter.XYs
+	for i := range x {
+		if math.IsNaN(y[i]) || math.IsInf(y[i], 0) {
+			if len(cur) > 0 {
+				out = append(out, cur)
+				cur = nil
+			}
+			continue
+		}
+		cur = append(cur, plotter.XY{X: x[i], Y: y[i]})
+	}
+	if len(cur) > 0 {
+		out = append(out, cur)
+	}
+	return out
+}
+
+// render draws the figure to path, PNG or SVG by the extension.
+func (f *panels) render(path string, inputs ...string) error {
+	if err := checkPlotFile(path, inputs...); err != nil {
+		return err
+	}
+	var plots [][]*plot.Plot
+	for i, pn := range f.Panels {
+		p := plot.New()
+		if i == 0 {
+			p.Title.Text = f.Title
+		}
+		styleAxes(p)
+		p.X.Label.Text, p.Y.Label.Text = pn.XLabel, pn.YLabel
+		if pn.LogX {
+			p.X.Scale = plot.LogScale{}
+			p.X.Tick.Marker = plot.LogTicks{Prec: -1}
+		}
+		if pn.FreqX {
+			p.X.Tick.Marker = freqTicks{}
+		}
+		if pn.LogY {
+			p.Y.Scale = plot.LogScale{}
+			p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+		}
+		if pn.FreqY {
+			p.Y.Tick.Marker = freqTicks{}
+		}
+		if pn.OhmY {
+			p.Y.Tick.Marker = ohmTicks{}
+		}
+		if pn.DBY {
+			p.Y.Tick.Marker = dbTicks{}
+		}
+		if pn.TenthsX {
+			p.X.Tick.Marker = tenths{}
+		}
+		if pn.XMax > pn.XMin {
+			p.X.Min, p.X.Max = pn.XMin, pn.XMax
+		}
+		empty := true
+		for _, s := range pn.Series {
+			empty = empty && len(segments(s.X, s.Y)) == 0
+		}
+		if empty && pn.YMax > pn.YMin {
+			p.Y.Min, p.Y.Max = pn.YMin, pn.YMax
+		}
+		p.Legend.Top, p.Legend.Left = !pn.LegendBottom, !pn.LegendRight
+		p.Legend.XOffs, p.Legend.YOffs = vg.Points(8), -vg.Points(4)
+		if pn.LegendRight {
+			p.Legend.XOffs = -vg.Points(8)
+		}
+		if pn.LegendBottom {
+			p.Legend.YOffs = vg.Points(8)
+		}
+		for k, s := range pn.Series {
+			col := colorFor(k, len(pn.Series))
+			first := true
+			for _, seg := range segments(s.X, s.Y) {
+				l, err := plotter.NewLine(seg)
+				if err != nil {
+					return err
+				}
+				l.Color, l.Width = col, vg.Points(2)
+				if k >= len(curveColors) {
+					l.Dashes = []vg.Length{vg.Points(2), vg.Points(2.5)}
+				}
+				p.Add(l)
+				if first && s.Label != "" {
+					p.Legend.Add(s.Label, l)
+					first = false
+				}
+				if len(seg) == 1 {
+					sc, err := plotter.NewScatter(seg)
+					if err != nil {
+						return err
+					}
+					sc.GlyphStyle = draw.GlyphStyle{Color: col, Radius: vg.Points(2), Shape: draw.CircleGlyph{}}
+					p.Add(sc)
+				}
+			}
+		}
+		plots = append(plots, []*plot.Plot{p})
+	}
+	w, h := vg.Length(9)*vg.Inch, vg.Length(3.6*float64(len(plots))+0.8)*vg.Inch
+	var canvas vg.CanvasWriterTo
+	if strings.ToLower(filepath.Ext(path)) == ".png" {
+		canvas = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(110), vgimg.UseBackgroundColor(color.White))}
+	} else {
+		canvas = vgsvg.New(w, h)
+	}
+	dc := draw.New(canvas)
+	tiles := draw.Tiles{Rows: len(plots), Cols: 1, PadTop: vg.Points(4), PadBottom: vg.Points(4), PadLeft: vg.Points(4), PadRight: vg.Points(10), PadY: vg.Points(14)}
+	cs := plot.Align(plots, tiles, dc)
+	for i := range plots {
+		plots[i][0].Draw(cs[i][0])
+	}
+	var buf bytes.Buffer
+	if _, err := canvas.WriteTo(&buf); err != nil {
+		return fmt.Errorf("drawing %s: %w", path, err)
+	}
+	return writeFile(path, buf.Bytes(), inputs...)
+}
+
+// tenths labels a 0..1 axis at every tenth.
+type tenths struct{}
+
+func (tenths) Ticks(min, max float64) []plot.Tick {
+	var ts []plot.Tick
+	for i := 0; i <= 10; i++ {
+		x := float64(i) / 10
+		if x >= min-1e-9 && x <= max+1e-9 {
+			ts = append(ts, plot.Tick{Value: x, Label: fmt.Sprintf("%g", x)})
+		}
+	}
+	return ts
+}
+
+// ohmTicks labels a log axis of resistances at 1-2-5 steps: 10 kΩ, 20 kΩ, …
+type ohmTicks struct{}
+
+func (ohmTicks) Ticks(min, max float64) []plot.Tick {
+	var ts []plot.Tick
+	for e := math.Floor(math.Log10(min)); e <= math.Ceil(math.Log10(max)); e++ {
+		for _, m := range []float64{1, 2, 5} {
+			v := m * math.Pow(10, e)
+			if v >= min && v <= max {
+				ts = append(ts, plot.Tick{Value: v, Label: ohm(v)})
+			}
+		}
+	}
+	return ts
+}
