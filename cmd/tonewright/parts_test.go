@@ -16,9 +16,9 @@ func TestPartsTable(t *testing.T) {
 	golden(t, "parts-demo.txt", out)
 	for _, want := range []string{
 		"11 parts on 9 lines",
-		"source.series_c",          // the coupling capacitor is listed
-		"audio (A)",           // the level pot with its taper and code
-		"filter1.r filter2.r", // identical values share a line
+		"source.series_c",                         // the coupling capacitor is listed
+		"audio (A)",                               // the level pot with its taper and code
+		"filter1.r filter2.r",                     // identical values share a line
 		"caution: Voltage ratings are not listed", // the valve-circuit caution
 		"± 5 %",  // the tolerance the study assumes
 		"100 nF", // values as the trade writes them
