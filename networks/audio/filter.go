@@ -1,0 +1,123 @@
+package audio
+
+import (
+	"math"
+	"math/cmplx"
+)
+
+// Filter is a fitted digital filter in modal form: one-pole sections
+// s[n] = x[n] + p·s[n−1] adding r·s[n] to the output, second-order sections
+// s[n] = x[n] + a1·s[n−1] + a2·s[n−2] adding b0·s[n] + b1·s[n−1], and direct
+// taps c[k]·x[n−k]. A section's state depends on its pole only, not on its
+// numerator, so the state of one setting's filter can be handed to the
+// filter of a nearby setting (see Turn). A Filter is immutable and safe for
+// concurrent use; its running state lives in a State.
+type Filter struct {
+	Rate  float64 // sample rate, Hz
+	reals []float64
+	resid []float64
+	pairs []pair
+	fir   []float64
+}
+
+type pair struct{ a1, a2, b0, b1 float64 }
+
+// Sections returns the number of one-pole and second-order sections.
+func (f *Filter) Sections() (onePole, twoPole int) { return len(f.reals), len(f.pairs) }
+
+// Response returns the filter's frequency response at hz.
+func (f *Filter) Response(hz float64) complex128 {
+	zi := cmplx.Exp(complex(0, -2*math.Pi*hz/f.Rate))
+	var h complex128
+	for i, p := range f.reals {
+		h += complex(f.resid[i], 0) / (1 - complex(p, 0)*zi)
+	}
+	for _, q := range f.pairs {
+		h += (complex(q.b0, 0) + complex(q.b1, 0)*zi) / (1 - complex(q.a1, 0)*zi - complex(q.a2, 0)*zi*zi)
+	}
+	t := complex(1, 0)
+	for _, c := range f.fir {
+		h += complex(c, 0) * t
+		t *= zi
+	}
+	return h
+}
+
+// State is one channel's running state of a Filter.
+type State struct {
+	s  []float64    // one-pole sections
+	q  [][2]float64 // second-order sections: s[n−1], s[n−2]
+	xh []float64    // the last inputs, newest first, for the FIR taps
+}
+
+// NewState returns a state at rest for f.
+func (f *Filter) NewState() *State {
+	return &State{s: make([]float64, len(f.reals)), q: make([][2]float64, len(f.pairs)), xh: make([]float64, len(f.fir))}
+}
+
+// Reset puts the state at rest.
+func (st *State) Reset() {
+	clear(st.s)
+	clear(st.q)
+	clear(st.xh)
+}
+
+// CopyFrom takes over another state, section by section in pole order. It
+// is exact for the FIR history; for the sections it is exact when the two
+// filters' poles are equal and close when they are near, which is what
+// Turn needs. Sections the other state lacks start at rest.
+func (st *State) CopyFrom(o *State) {
+	st.Reset()
+	copy(st.s, o.s)
+	copy(st.q, o.q)
+	copy(st.xh, o.xh)
+}
+
+// Process filters in into out, which must have in's length and must not
+// share its memory, advancing st. It does not allocate.
+func (f *Filter) Process(st *State, in, out []float64) {
+	n := len(in)
+	out = out[:n]
+	c := f.fir
+	for i := range out {
+		v := 0.0
+		for k, ck := range c {
+			if j := i - k; j >= 0 {
+				v += ck * in[j]
+			} else {
+				v += ck * st.xh[-j-1]
+			}
+		}
+		out[i] = v
+	}
+	f.sections(st, in, out)
+	m := len(st.xh)
+	if n < m {
+		copy(st.xh[n:], st.xh[:m-n])
+	}
+	for k := 0; k < m && k < n; k++ {
+		st.xh[k] = in[n-1-k]
+	}
+}
+
+func (f *Filter) sections(st *State, in, out []float64) {
+	for k, p := range f.reals {
+		r := f.resid[k]
+		s := st.s[k]
+		for i, x := range in {
+			s = x + p*s
+			out[i] += r * s
+		}
+		st.s[k] = s
+	}
+	for k := range f.pairs {
+		q := &f.pairs[k]
+		s1, s2 := st.q[k][0], st.q[k][1]
+		for i, x := range in {
+			s := x + q.a1*s1 + q.a2*s2
+			out[i] += q.b0*s + q.b1*s1
+			s1, s2 = s, s1
+		}
+		st.q[k] = [2]float64{s1, s2}
+	}
+}

@@ -1,0 +1,203 @@
+package audio
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+	"sort"
+
+	"gonum.org/v1/gonum/mat"
+)
+
+// Response is a network's exact transfer function: V(out)/V(source) at a
+// frequency in Hz. networks.Compiled and networks.Solver are Responses.
+type Response interface {
+	Transfer(f float64) complex128
+}
+
+// The fit's settings.
+const (
+	// FitTop is the top of the fitted band as a fraction of the sample rate.
+	FitTop = 0.45
+	// FitFrom is the bottom of the fitted band, Hz.
+	FitFrom = 5.0
+	// FitPerDecade is the density of the fit's log-spaced grid.
+	FitPerDecade = 60
+	// FIRTaps is the number of direct taps fitted beside the sections.
+	FIRTaps = 16
+	// ridge keeps the least-squares problem well posed when two poles are
+	// nearly equal; on columns scaled to unit length it is far below any
+	// audible error.
+	ridge = 1e-9
+	// PhaseFrom and PhaseFree bound, as fractions of the sample rate, the
+	// band where the fit lets the phase go. A real digital filter's
+	// response is real at the Nyquist frequency, while the network's phase
+	// there is not a multiple of 180°; a fit that held the phase to the top
+	// would spread that clash over the whole band. Below PhaseFrom the
+	// target is the network's exact complex response; from PhaseFrom to
+	// PhaseFree the target's phase moves linearly towards the fit's own, so
+	// that above PhaseFree only the magnitude is fitted. The fit is
+	// repeated phaseIterations times, each with the previous fit's phase.
+	PhaseFrom       = 0.15
+	PhaseFree       = 0.16
+	phaseIterations = 60
+	// firPole: a pole whose digital image is smaller than this decays
+	// within the FIR taps' span, so the taps carry it instead of a section
+	// that would be nearly collinear with them.
+	firPole = 0.3
+	// linearPoints are spread evenly up to the top of the band, where a log
+	// grid is thin and the fit is hardest.
+	linearPoints = 200
+)
+
+// Fit returns the digital filter at sample rate rate (Hz) whose response
+// follows h, the network's exact response, given the network's finite
+// poles in rad/s (conjugate pairs may be given once or twice). Every pole
+// must lie in the left half plane. See the package documentation for the
+// method; Filter.Check measures its error.
+func Fit(h Response, poles []complex128, rate float64) (*Filter, error) {
+	if !(rate > 0) || math.IsInf(rate, 0) {
+		return nil, fmt.Errorf("sample rate %v Hz must be positive and finite", rate)
+	}
+	T := 1 / rate
+	f := &Filter{Rate: rate}
+	for _, p := range poles {
+		if cmplx.IsNaN(p) || cmplx.IsInf(p) {
+			return nil, fmt.Errorf("pole %v is not finite", p)
+		}
+		if !(real(p) < 0) {
+			return nil, fmt.Errorf("pole %v rad/s is not in the left half plane: the network is not stable", p)
+		}
+		z := cmplx.Exp(p * complex(T, 0))
+		if cmplx.Abs(z) < firPole {
+			// Far above the band: the FIR taps carry it.
+			continue
+		}
+		switch {
+		case math.Abs(imag(p)) <= 1e-9*cmplx.Abs(p):
+			f.reals = append(f.reals, real(z))
+		case imag(p) > 0:
+			f.pairs = append(f.pairs, pair{a1: 2 * real(z), a2: -real(z)*real(z) - imag(z)*imag(z)})
+		}
+	}
+	sort.Float64s(f.reals)
+	sort.Slice(f.pairs, func(i, j int) bool { return f.pairs[i].a2 < f.pairs[j].a2 })
+	f.fir = make([]float64, FIRTaps)
+
+	grid := fitGrid(rate)
+	target := make([]complex128, len(grid))
+	for i, hz := range grid {
+		target[i] = h.Transfer(hz)
+		if cmplx.IsNaN(target[i]) || cmplx.IsInf(target[i]) {
+			return nil, fmt.Errorf("the network has no response at %g Hz", hz)
+		}
+	}
+	want := append([]complex128(nil), target...)
+	for it := 0; ; it++ {
+		if err := f.solve(grid, want); err != nil {
+			return nil, err
+		}
+		if it == phaseIterations {
+			return f, nil
+		}
+		// Above PhaseFrom·rate the phase is let go, gradually, towards
+		// the fit's own: see PhaseFrom.
+		for i, hz := range grid {
+			a := (hz/rate - PhaseFrom) / (PhaseFree - PhaseFrom)
+			if a <= 0 {
+				continue
+			}
+			a = math.Min(a, 1)
+			d := cmplx.Phase(f.Response(hz) / target[i])
+			want[i] = target[i] * cmplx.Rect(1, math.Min(a, 1)*d)
+		}
+	}
+}
+
+// solve fits the sections' numerators and the taps to want on grid.
+func (f *Filter) solve(grid []float64, want []complex128) error {
+	nr, np := len(f.reals), len(f.pairs)
+	cols := nr + 2*np + FIRTaps
+	rows := 2*len(grid) + cols
+	A := mat.NewDense(rows, cols, nil)
+	b := mat.NewVecDense(rows, nil)
+	basis := make([]complex128, cols)
+	for i, hz := range grid {
+		m := cmplx.Abs(want[i])
+		if m == 0 {
+			continue
+		}
+		w := 1 / m
+		f.basis(hz, basis)
+		for j, v := range basis {
+			A.Set(2*i, j, real(v)*w)
+			A.Set(2*i+1, j, imag(v)*w)
+		}
+		b.SetVec(2*i, real(want[i])*w)
+		b.SetVec(2*i+1, imag(want[i])*w)
+	}
+	// Scale columns to unit length, then add the ridge rows.
+	scale := make([]float64, cols)
+	for j := 0; j < cols; j++ {
+		s := mat.Norm(A.ColView(j), 2)
+		if s == 0 {
+			s = 1
+		}
+		scale[j] = s
+		for i := 0; i < 2*len(grid); i++ {
+			A.Set(i, j, A.At(i, j)/s)
+		}
+		A.Set(2*len(grid)+j, j, math.Sqrt(ridge))
+	}
+	var x mat.VecDense
+	if err := x.SolveVec(A, b); err != nil {
+		return fmt.Errorf("fitting the filter: %v", err)
+	}
+	c := make([]float64, cols)
+	for j := range c {
+		c[j] = x.AtVec(j) / scale[j]
+	}
+	f.resid = c[:nr]
+	for k := range f.pairs {
+		f.pairs[k].b0, f.pairs[k].b1 = c[nr+2*k], c[nr+2*k+1]
+	}
+	copy(f.fir, c[nr+2*np:])
+	return nil
+}
+
+// fitGrid is the log-spaced grid from FitFrom to FitTop·rate.
+func fitGrid(rate float64) []float64 {
+	lo, hi := math.Log10(FitFrom), math.Log10(FitTop*rate)
+	n := int(math.Ceil((hi-lo)*FitPerDecade)) + 1
+	g := make([]float64, n, n+linearPoints)
+	for i := range g {
+		g[i] = math.Pow(10, lo+(hi-lo)*float64(i)/float64(n-1))
+	}
+	for i := 1; i <= linearPoints; i++ {
+		g = append(g, FitTop*rate*float64(i)/linearPoints)
+	}
+	return g
+}
+
+// basis fills out with the response at hz of each unknown's unit
+// coefficient: the one-pole sections, the two numerator terms of each pair,
+// then the FIR taps.
+func (f *Filter) basis(hz float64, out []complex128) {
+	zi := cmplx.Exp(complex(0, -2*math.Pi*hz/f.Rate)) // z⁻¹
+	k := 0
+	for _, p := range f.reals {
+		out[k] = 1 / (1 - complex(p, 0)*zi)
+		k++
+	}
+	for _, q := range f.pairs {
+		d := 1 - complex(q.a1, 0)*zi - complex(q.a2, 0)*zi*zi
+		out[k], out[k+1] = 1/d, zi/d
+		k += 2
+	}
+	t := complex(1, 0)
+	for j := 0; j < FIRTaps; j++ {
+		out[k] = t
+		t *= zi
+		k++
+	}
+}
