@@ -111,3 +111,5 @@ func TestFitDemoChain(t *testing.T) {
 		}
 	}
 }
+
+func cmplxAbs(z complex128) float64 { return cmplx.Abs(z) }
