@@ -92,9 +92,13 @@ func Fit(h Response, poles []complex128, rate float64) (*Filter, error) {
 			return nil, fmt.Errorf("the network has no response at %g Hz", hz)
 		}
 	}
+	ls, err := f.design(grid, target)
+	if err != nil {
+		return nil, err
+	}
 	want := append([]complex128(nil), target...)
 	for it := 0; ; it++ {
-		if err := f.solve(grid, want); err != nil {
+		if err := ls.solve(f, want); err != nil {
 			return nil, err
 		}
 		if it == phaseIterations {
@@ -107,61 +111,79 @@ func Fit(h Response, poles []complex128, rate float64) (*Filter, error) {
 			if a <= 0 {
 				continue
 			}
-			a = math.Min(a, 1)
 			d := cmplx.Phase(f.Response(hz) / target[i])
 			want[i] = target[i] * cmplx.Rect(1, math.Min(a, 1)*d)
 		}
 	}
 }
 
-// solve fits the sections' numerators and the taps to want on grid.
-func (f *Filter) solve(grid []float64, want []complex128) error {
+// leastSquares is the fit's linear problem, factorised once: the rows are
+// the real and imaginary parts of the basis at each grid frequency,
+// weighted by 1/|H| so that the error is relative; the columns are scaled
+// to unit length and a ridge row is added per column.
+type leastSquares struct {
+	qr     mat.QR
+	w      []float64 // row weight per grid point
+	scale  []float64
+	rows   int
+	b, x   mat.VecDense
+	nr, np int
+}
+
+func (f *Filter) design(grid []float64, target []complex128) (*leastSquares, error) {
 	nr, np := len(f.reals), len(f.pairs)
 	cols := nr + 2*np + FIRTaps
 	rows := 2*len(grid) + cols
 	A := mat.NewDense(rows, cols, nil)
-	b := mat.NewVecDense(rows, nil)
+	ls := &leastSquares{w: make([]float64, len(grid)), scale: make([]float64, cols), rows: rows, nr: nr, np: np}
 	basis := make([]complex128, cols)
 	for i, hz := range grid {
-		m := cmplx.Abs(want[i])
+		m := cmplx.Abs(target[i])
 		if m == 0 {
 			continue
 		}
 		w := 1 / m
+		ls.w[i] = w
 		f.basis(hz, basis)
 		for j, v := range basis {
 			A.Set(2*i, j, real(v)*w)
 			A.Set(2*i+1, j, imag(v)*w)
 		}
-		b.SetVec(2*i, real(want[i])*w)
-		b.SetVec(2*i+1, imag(want[i])*w)
 	}
-	// Scale columns to unit length, then add the ridge rows.
-	scale := make([]float64, cols)
 	for j := 0; j < cols; j++ {
 		s := mat.Norm(A.ColView(j), 2)
 		if s == 0 {
 			s = 1
 		}
-		scale[j] = s
+		ls.scale[j] = s
 		for i := 0; i < 2*len(grid); i++ {
 			A.Set(i, j, A.At(i, j)/s)
 		}
 		A.Set(2*len(grid)+j, j, math.Sqrt(ridge))
 	}
-	var x mat.VecDense
-	if err := x.SolveVec(A, b); err != nil {
+	ls.qr.Factorize(A)
+	ls.b = *mat.NewVecDense(rows, nil)
+	return ls, nil
+}
+
+// solve sets f's numerators and taps to the fit of want.
+func (ls *leastSquares) solve(f *Filter, want []complex128) error {
+	for i, w := range ls.w {
+		ls.b.SetVec(2*i, real(want[i])*w)
+		ls.b.SetVec(2*i+1, imag(want[i])*w)
+	}
+	if err := ls.qr.SolveVecTo(&ls.x, false, &ls.b); err != nil {
 		return fmt.Errorf("fitting the filter: %v", err)
 	}
-	c := make([]float64, cols)
+	c := make([]float64, len(ls.scale))
 	for j := range c {
-		c[j] = x.AtVec(j) / scale[j]
+		c[j] = ls.x.AtVec(j) / ls.scale[j]
 	}
-	f.resid = c[:nr]
+	f.resid = c[:ls.nr]
 	for k := range f.pairs {
-		f.pairs[k].b0, f.pairs[k].b1 = c[nr+2*k], c[nr+2*k+1]
+		f.pairs[k].b0, f.pairs[k].b1 = c[ls.nr+2*k], c[ls.nr+2*k+1]
 	}
-	copy(f.fir, c[nr+2*np:])
+	copy(f.fir, c[ls.nr+2*ls.np:])
 	return nil
 }
 
