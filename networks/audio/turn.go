@@ -61,6 +61,14 @@ func (t *Turn) Process(in, out []float64) {
 			t.states[next].CopyFrom(t.states[next-1])
 			t.started = next
 		}
+		if t.lo+1 <= k-1 {
+			// Stop the chunk where the knob reaches the next filter, so
+			// that the next pair takes over exactly there.
+			b := int64(math.Ceil(float64(t.lo+1) * float64(t.Frames) / float64(k)))
+			if b > t.at && b-t.at < int64(n) {
+				n = int(b - t.at)
+			}
+		}
 		ya, yb := t.ya[:n], t.yb[:n]
 		t.Filters[t.lo].Process(t.states[t.lo], in[:n], ya)
 		if k == 0 {
