@@ -313,7 +313,8 @@ func runListen(a *app, cmd *cobra.Command, o listenFlags, args []string) error {
 		c.EndS = float64(st.Start+st.Frames) / rate
 		c.GainDB = 20 * math.Log10(gains[i])
 		c.PeakDBFS = 20 * math.Log10(st.Peak)
-		if l := st.LoudnessLUFS; !math.IsInf(l, 0) {
+		if l := measured[i].LoudnessLUFS; !math.IsInf(l, 0) {
+			l += c.GainDB
 			c.LoudnessLUFS = &l
 		}
 		c.Clipped = st.Clipped

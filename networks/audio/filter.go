@@ -79,7 +79,8 @@ func (f *Filter) Process(st *State, in, out []float64) {
 	n := len(in)
 	out = out[:n]
 	c := f.fir
-	for i := range out {
+	head := min(len(c), n)
+	for i := 0; i < head; i++ {
 		v := 0.0
 		for k, ck := range c {
 			if j := i - k; j >= 0 {
@@ -87,6 +88,14 @@ func (f *Filter) Process(st *State, in, out []float64) {
 			} else {
 				v += ck * st.xh[-j-1]
 			}
+		}
+		out[i] = v
+	}
+	for i := head; i < n; i++ {
+		v := 0.0
+		x := in[i-len(c)+1 : i+1]
+		for k, ck := range c {
+			v += ck * x[len(x)-1-k]
 		}
 		out[i] = v
 	}

@@ -89,9 +89,12 @@ type PartStats struct {
 const BlockFrames = 4096
 
 // Render plays the parts one after another, each multiplied by its gain
-// (linear; nil means 1), and hands every block, channels × frames, to sink
-// (nil: measure only). Channels is the output's channel count; a mono
-// source feeds every channel. It returns what it measured of each part.
+// (linear), and hands every block, channels × frames, to sink (nil: measure
+// only). Channels is the output's channel count; a mono source feeds every
+// channel. It returns what it measured of each part. With gains nil it is
+// the measuring pass: unit gains, and the loudness is measured too; with
+// gains, LoudnessLUFS is left NaN (it is the measuring pass's plus the
+// gain in dB), which saves the K-weighting filters.
 func Render(parts []Part, channels int, gains []float64, sink func([][]float64) error) ([]PartStats, error) {
 	in := make([][]float64, channels)
 	out := make([][]float64, channels)
@@ -125,7 +128,10 @@ func Render(parts []Part, channels int, gains []float64, sink func([][]float64) 
 		if err != nil {
 			return nil, err
 		}
-		meter := NewLoudnessMeter(float64(rate), channels)
+		var meter *LoudnessMeter
+		if gains == nil {
+			meter = NewLoudnessMeter(float64(rate), channels)
+		}
 		st := &stats[p]
 		st.Start = at
 		gap := int64(math.Round(part.Gap * float64(rate)))
@@ -174,7 +180,9 @@ func Render(parts []Part, channels int, gains []float64, sink func([][]float64) 
 				}
 				blk[c] = o
 			}
-			meter.Add(blk)
+			if meter != nil {
+				meter.Add(blk)
+			}
 			if sink != nil {
 				if err := sink(blk); err != nil {
 					r.Close()
@@ -185,7 +193,10 @@ func Render(parts []Part, channels int, gains []float64, sink func([][]float64) 
 			at += int64(n)
 		}
 		r.Close()
-		st.LoudnessLUFS = meter.Loudness()
+		st.LoudnessLUFS = math.NaN()
+		if meter != nil {
+			st.LoudnessLUFS = meter.Loudness()
+		}
 	}
 	return stats, nil
 }

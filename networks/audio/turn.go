@@ -9,22 +9,21 @@ import (
 // increasing knob positions, evenly spaced, and the knob's position u (0 at
 // Filters[0], 1 at the last) moves linearly from 0 to 1 over Frames
 // samples, then stays at 1. At position u between filters i and i+1 the
-// output is the crossfade (1−w)·y_i + w·y_{i+1} of the two filters' outputs,
-// with w updated every sample, so no step is ever heard. Filter i+2 runs
-// ahead, unheard, from the moment filter i+1 becomes audible; when it
-// starts it takes over the state of filter i+1 (see State.CopyFrom), so no
-// filter is heard starting cold in the middle of the signal. Three filters
-// run at any time.
+// output is the crossfade (1−w)·y_i + w·y_{i+1} of the two filters'
+// outputs, with w updated every sample, so no step is ever heard. When the
+// knob reaches filter i+1, filter i stops and filter i+2 starts with the
+// state of filter i+1 (see State.CopyFrom): it is not heard starting cold,
+// and the small mismatch of the handed-over state is heard only through
+// its weight, which starts at 0 and rises slowly while the mismatch dies
+// away with the network's own time constants. Two filters run at any time.
 type Turn struct {
 	Filters []*Filter
 	Frames  int64
 
-	states  []*State
-	at      int64 // samples processed
-	lo      int   // the lower audible filter
-	started int   // filters up to this index are running
-	ya, yb  []float64
-	scratch []float64
+	states []*State
+	at     int64 // samples processed
+	lo     int   // the lower audible filter
+	ya, yb []float64
 }
 
 // NewTurn returns a turn through filters over frames samples.
@@ -33,33 +32,29 @@ func NewTurn(filters []*Filter, frames int64) *Turn {
 	for i, f := range filters {
 		t.states[i] = f.NewState()
 	}
-	t.started = min(2, len(filters)-1)
 	return t
 }
 
 // chunk is the longest run of samples processed with one pair of filters.
-const chunk = 64
+const chunk = 256
 
 // Process filters in into out (the same length, not sharing memory).
 func (t *Turn) Process(in, out []float64) {
 	if len(t.ya) < chunk {
-		t.ya, t.yb, t.scratch = make([]float64, chunk), make([]float64, chunk), make([]float64, chunk)
+		t.ya, t.yb = make([]float64, chunk), make([]float64, chunk)
 	}
 	k := len(t.Filters) - 1
+	if k == 0 {
+		t.Filters[0].Process(t.states[0], in, out)
+		return
+	}
+	rate := float64(k) / float64(t.Frames) // knob travel per sample, in filters
 	for len(in) > 0 {
 		n := min(chunk, len(in))
 		u := t.pos(t.at)
-		i := min(int(u), max(k-1, 0))
-		for t.lo < i {
+		for i := min(int(u), k-1); t.lo < i; {
 			t.lo++
-			if next := t.lo + 1; next <= k && next > t.started {
-				t.states[next].CopyFrom(t.states[next-1])
-				t.started = next
-			}
-		}
-		if next := t.lo + 2; next <= k && next > t.started {
-			t.states[next].CopyFrom(t.states[next-1])
-			t.started = next
+			t.states[t.lo+1].CopyFrom(t.states[t.lo])
 		}
 		if t.lo+1 <= k-1 {
 			// Stop the chunk where the knob reaches the next filter, so
@@ -71,18 +66,17 @@ func (t *Turn) Process(in, out []float64) {
 		}
 		ya, yb := t.ya[:n], t.yb[:n]
 		t.Filters[t.lo].Process(t.states[t.lo], in[:n], ya)
-		if k == 0 {
-			copy(out[:n], ya)
-		} else {
-			t.Filters[t.lo+1].Process(t.states[t.lo+1], in[:n], yb)
-			if ahead := t.lo + 2; ahead <= k {
-				t.Filters[ahead].Process(t.states[ahead], in[:n], t.scratch[:n])
-			}
-			for j := 0; j < n; j++ {
-				w := t.pos(t.at+int64(j)) - float64(t.lo)
-				w = min(max(w, 0), 1)
-				out[j] = ya[j] + w*(yb[j]-ya[j])
-			}
+		t.Filters[t.lo+1].Process(t.states[t.lo+1], in[:n], yb)
+		w := u - float64(t.lo)
+		dw := rate
+		if t.at >= t.Frames {
+			dw = 0
+		}
+		o := out[:n]
+		for j := range o {
+			c := min(max(w, 0), 1)
+			o[j] = ya[j] + c*(yb[j]-ya[j])
+			w += dw
 		}
 		t.at += int64(n)
 		in, out = in[n:], out[n:]
