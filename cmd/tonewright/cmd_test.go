@@ -201,7 +201,7 @@ func TestDemoWritesFiles(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
-	for _, f := range []string{"targets.yaml", "design.yaml", "synth.txt", "analysis.txt", "analysis.json", "sweep.txt", "tolerance.txt", "curves.png", "curves-phase.svg", "sweep.png", "tolerance.png"} {
+	for _, f := range []string{"targets.yaml", "design.yaml", "synth.txt", "analysis.txt", "analysis.json", "sweep.txt", "tolerance.txt", "curves.png", "curves-phase.svg", "sweep.png", "tolerance.png", "listen.wav"} {
 		p := filepath.Join(dir, f)
 		if _, err := os.Stat(p); err != nil {
 			t.Errorf("demo did not write %s", f)

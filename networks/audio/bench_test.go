@@ -4,6 +4,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"tonewright/networks"
@@ -43,7 +44,10 @@ func BenchmarkFit(b *testing.B) {
 // BenchmarkRender renders ten seconds of stereo at 48 kHz through the
 // three-section design, at one setting and while the blend knob turns, and
 // reports how many times faster than real time it runs (one core; the
-// filters are fitted before the timer starts).
+// filters are fitted before the timer starts). One pass is Render's
+// measuring pass (filters, peak and BS.1770 loudness); "turn, both passes"
+// is what listen does in memory: the measuring pass, then the pass with the
+// gains.
 func BenchmarkRender(b *testing.B) {
 	const rate, seconds = 48000, 10.0
 	d := benchDesign(b)
@@ -69,11 +73,19 @@ func BenchmarkRender(b *testing.B) {
 	}{
 		{"setting", Part{Source: src, Filters: []*Filter{one}}},
 		{"turn", Part{Source: src, Filters: turn, TurnFrames: int64(rate * seconds)}},
+		{"turn, both passes", Part{Source: src, Filters: turn, TurnFrames: int64(rate * seconds)}},
 	} {
 		b.Run(c.name, func(b *testing.B) {
+			both := strings.HasSuffix(c.name, "both passes")
 			for b.Loop() {
-				if _, err := Render([]Part{c.part}, 2, nil, nil); err != nil {
+				m, err := Render([]Part{c.part}, 2, nil, nil)
+				if err != nil {
 					b.Fatal(err)
+				}
+				if both {
+					if _, err := Render([]Part{c.part}, 2, Gains(m, false, Makeup{Auto: true}), nil); err != nil {
+						b.Fatal(err)
+					}
 				}
 			}
 			b.ReportMetric(seconds*float64(b.N)/b.Elapsed().Seconds(), "x_realtime")

@@ -24,7 +24,7 @@ const (
 	// FitPerDecade is the density of the fit's log-spaced grid.
 	FitPerDecade = 60
 	// FIRTaps is the number of direct taps fitted beside the sections.
-	FIRTaps = 16
+	FIRTaps = 4
 	// ridge keeps the least-squares problem well posed when two poles are
 	// nearly equal; on columns scaled to unit length it is far below any
 	// audible error.
