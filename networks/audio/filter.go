@@ -91,13 +91,20 @@ func (f *Filter) Process(st *State, in, out []float64) {
 		}
 		out[i] = v
 	}
-	for i := head; i < n; i++ {
-		v := 0.0
-		x := in[i-len(c)+1 : i+1]
-		for k, ck := range c {
-			v += ck * x[len(x)-1-k]
+	if len(c) == 4 {
+		c0, c1, c2, c3 := c[0], c[1], c[2], c[3]
+		for i := max(head, 3); i < n; i++ {
+			out[i] = c0*in[i] + c1*in[i-1] + c2*in[i-2] + c3*in[i-3]
 		}
-		out[i] = v
+	} else {
+		for i := head; i < n; i++ {
+			v := 0.0
+			x := in[i-len(c)+1 : i+1]
+			for k, ck := range c {
+				v += ck * x[len(x)-1-k]
+			}
+			out[i] = v
+		}
 	}
 	f.sections(st, in, out)
 	m := len(st.xh)
@@ -109,10 +116,37 @@ func (f *Filter) Process(st *State, in, out []float64) {
 	}
 }
 
+// sections adds the sections' outputs to out. The one-pole sections run
+// two or four at a time, so that their independent recursions overlap in
+// the processor.
 func (f *Filter) sections(st *State, in, out []float64) {
-	for k, p := range f.reals {
-		r := f.resid[k]
-		s := st.s[k]
+	k := 0
+	for ; k+4 <= len(f.reals); k += 4 {
+		p0, p1, p2, p3 := f.reals[k], f.reals[k+1], f.reals[k+2], f.reals[k+3]
+		r0, r1, r2, r3 := f.resid[k], f.resid[k+1], f.resid[k+2], f.resid[k+3]
+		s0, s1, s2, s3 := st.s[k], st.s[k+1], st.s[k+2], st.s[k+3]
+		for i, x := range in {
+			s0 = x + p0*s0
+			s1 = x + p1*s1
+			s2 = x + p2*s2
+			s3 = x + p3*s3
+			out[i] += r0*s0 + r1*s1 + r2*s2 + r3*s3
+		}
+		st.s[k], st.s[k+1], st.s[k+2], st.s[k+3] = s0, s1, s2, s3
+	}
+	for ; k+2 <= len(f.reals); k += 2 {
+		p0, p1 := f.reals[k], f.reals[k+1]
+		r0, r1 := f.resid[k], f.resid[k+1]
+		s0, s1 := st.s[k], st.s[k+1]
+		for i, x := range in {
+			s0 = x + p0*s0
+			s1 = x + p1*s1
+			out[i] += r0*s0 + r1*s1
+		}
+		st.s[k], st.s[k+1] = s0, s1
+	}
+	for ; k < len(f.reals); k++ {
+		p, r, s := f.reals[k], f.resid[k], st.s[k]
 		for i, x := range in {
 			s = x + p*s
 			out[i] += r * s
@@ -121,10 +155,11 @@ func (f *Filter) sections(st *State, in, out []float64) {
 	}
 	for k := range f.pairs {
 		q := &f.pairs[k]
+		a1, a2, b0, b1 := q.a1, q.a2, q.b0, q.b1
 		s1, s2 := st.q[k][0], st.q[k][1]
 		for i, x := range in {
-			s := x + q.a1*s1 + q.a2*s2
-			out[i] += q.b0*s + q.b1*s1
+			s := x + a1*s1 + a2*s2
+			out[i] += b0*s + b1*s1
 			s1, s2 = s, s1
 		}
 		st.q[k] = [2]float64{s1, s2}
