@@ -11,7 +11,10 @@
 // transform keeps every pole's frequency and decay exactly and is always
 // stable); real poles become one-pole sections and complex pairs real
 // second-order sections. The sections' numerators and a few direct FIR taps
-// are then the linear least-squares fit of the network's exact complex
-// response H(jω) on a dense grid up to 0.45 of the sample rate, weighted by
-// 1/|H| so that the error is relative (in dB) and the phase is fitted too.
+// are then fitted to the network's exact response H(jω) on a dense grid up
+// to 0.45 of the sample rate: first the linear least-squares fit of the
+// complex response weighted by 1/|H| (relative error, phase included), then
+// Gauss–Newton steps that keep that error below 0.15 of the sample rate
+// and fit only the log magnitude above it, where a real digital filter
+// cannot follow the network's phase to the Nyquist frequency.
 package audio

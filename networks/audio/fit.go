@@ -24,23 +24,23 @@ const (
 	// FitPerDecade is the density of the fit's log-spaced grid.
 	FitPerDecade = 60
 	// FIRTaps is the number of direct taps fitted beside the sections.
-	FIRTaps = 4
+	FIRTaps = 8
 	// ridge keeps the least-squares problem well posed when two poles are
 	// nearly equal; on columns scaled to unit length it is far below any
 	// audible error.
 	ridge = 1e-9
-	// PhaseFrom and PhaseFree bound, as fractions of the sample rate, the
-	// band where the fit lets the phase go. A real digital filter's
-	// response is real at the Nyquist frequency, while the network's phase
-	// there is not a multiple of 180°; a fit that held the phase to the top
-	// would spread that clash over the whole band. Below PhaseFrom the
-	// target is the network's exact complex response; from PhaseFrom to
-	// PhaseFree the target's phase moves linearly towards the fit's own, so
-	// that above PhaseFree only the magnitude is fitted. The fit is
-	// repeated phaseIterations times, each with the previous fit's phase.
-	PhaseFrom       = 0.15
-	PhaseFree       = 0.16
-	phaseIterations = 60
+	// PhaseFrom is, as a fraction of the sample rate, where the fit stops
+	// holding the phase. A real digital filter's response is real at the
+	// Nyquist frequency, while the network's phase there is not a multiple
+	// of 180°; a fit that held the phase to the top would spread that clash
+	// over the whole band. Below PhaseFrom the fit's error is the relative
+	// complex error (magnitude and phase); above it, the error of the log
+	// magnitude only.
+	PhaseFrom = 0.15
+	// newtonSteps is the number of Gauss–Newton steps from the complex
+	// least-squares fit to the fit of that mixed error; it converges in
+	// three or four.
+	newtonSteps = 6
 	// firPole: a pole whose digital image is smaller than this decays
 	// within the FIR taps' span, so the taps carry it instead of a section
 	// that would be nearly collinear with them.
@@ -54,7 +54,7 @@ const (
 // follows h, the network's exact response, given the network's finite
 // poles in rad/s (conjugate pairs may be given once or twice). Every pole
 // must lie in the left half plane. See the package documentation for the
-// method; Filter.Check measures its error.
+// method.
 func Fit(h Response, poles []complex128, rate float64) (*Filter, error) {
 	if !(rate > 0) || math.IsInf(rate, 0) {
 		return nil, fmt.Errorf("sample rate %v Hz must be positive and finite", rate)
@@ -96,25 +96,13 @@ func Fit(h Response, poles []complex128, rate float64) (*Filter, error) {
 	if err != nil {
 		return nil, err
 	}
-	want := append([]complex128(nil), target...)
-	for it := 0; ; it++ {
-		if err := ls.solve(f, want); err != nil {
-			return nil, err
-		}
-		if it == phaseIterations {
-			return f, nil
-		}
-		// Above PhaseFrom·rate the phase is let go, gradually, towards
-		// the fit's own: see PhaseFrom.
-		for i, hz := range grid {
-			a := (hz/rate - PhaseFrom) / (PhaseFree - PhaseFrom)
-			if a <= 0 {
-				continue
-			}
-			d := cmplx.Phase(f.Response(hz) / target[i])
-			want[i] = target[i] * cmplx.Rect(1, math.Min(a, 1)*d)
-		}
+	if err := ls.solve(f, target); err != nil {
+		return nil, err
 	}
+	if err := f.refine(grid, target); err != nil {
+		return nil, err
+	}
+	return f, nil
 }
 
 // leastSquares is the fit's linear problem, factorised once: the rows are
@@ -184,6 +172,94 @@ func (ls *leastSquares) solve(f *Filter, want []complex128) error {
 		f.pairs[k].b0, f.pairs[k].b1 = c[ls.nr+2*k], c[ls.nr+2*k+1]
 	}
 	copy(f.fir, c[ls.nr+2*ls.np:])
+	return nil
+}
+
+// refine improves the fit by Gauss–Newton steps on the error that matters:
+// below PhaseFrom·rate the relative complex error 1 − H_d/H (linear in the
+// coefficients), above it the error of the log magnitude, ln|H| − ln|H_d|,
+// whose derivative in coefficient j is Re(B_j/H_d) with B_j that
+// coefficient's basis response.
+func (f *Filter) refine(grid []float64, target []complex128) error {
+	nr, np := len(f.reals), len(f.pairs)
+	cols := nr + 2*np + len(f.fir)
+	B := make([]complex128, len(grid)*cols)
+	rows := 0
+	for i, hz := range grid {
+		f.basis(hz, B[i*cols:(i+1)*cols])
+		if hz/f.Rate < PhaseFrom {
+			rows += 2
+		} else {
+			rows++
+		}
+	}
+	c := make([]float64, cols)
+	copy(c, f.resid)
+	for k, q := range f.pairs {
+		c[nr+2*k], c[nr+2*k+1] = q.b0, q.b1
+	}
+	copy(c[nr+2*np:], f.fir)
+	A := mat.NewDense(rows+cols, cols, nil)
+	b := mat.NewVecDense(rows+cols, nil)
+	scale := make([]float64, cols)
+	var x mat.VecDense
+	for step := 0; step < newtonSteps; step++ {
+		r := 0
+		for i, hz := range grid {
+			row := B[i*cols : (i+1)*cols]
+			var hd complex128
+			for j, v := range row {
+				hd += complex(c[j], 0) * v
+			}
+			if hd == 0 || target[i] == 0 {
+				return fmt.Errorf("the fit has no response at %g Hz", hz)
+			}
+			if hz/f.Rate < PhaseFrom {
+				e := (target[i] - hd) / target[i]
+				for j, v := range row {
+					d := v / target[i]
+					A.Set(r, j, real(d))
+					A.Set(r+1, j, imag(d))
+				}
+				b.SetVec(r, real(e))
+				b.SetVec(r+1, imag(e))
+				r += 2
+				continue
+			}
+			for j, v := range row {
+				A.Set(r, j, real(v/hd))
+			}
+			b.SetVec(r, math.Log(cmplx.Abs(target[i])/cmplx.Abs(hd)))
+			r++
+		}
+		for j := 0; j < cols; j++ {
+			s := 0.0
+			for i := 0; i < rows; i++ {
+				s += A.At(i, j) * A.At(i, j)
+			}
+			s = math.Sqrt(s)
+			if s == 0 {
+				s = 1
+			}
+			scale[j] = s
+			for i := 0; i < rows; i++ {
+				A.Set(i, j, A.At(i, j)/s)
+			}
+			A.Set(rows+j, j, math.Sqrt(ridge))
+			b.SetVec(rows+j, 0)
+		}
+		if err := x.SolveVec(A, b); err != nil {
+			return fmt.Errorf("refining the filter: %v", err)
+		}
+		for j := range c {
+			c[j] += x.AtVec(j) / scale[j]
+		}
+	}
+	copy(f.resid, c[:nr])
+	for k := range f.pairs {
+		f.pairs[k].b0, f.pairs[k].b1 = c[nr+2*k], c[nr+2*k+1]
+	}
+	copy(f.fir, c[nr+2*np:])
 	return nil
 }
 
