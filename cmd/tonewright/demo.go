@@ -165,7 +165,7 @@ func demoListen(d *networks.Design, path string) error {
 	fs, _, err := audio.TurnFilters(func(pos float64) (audio.Response, []complex128, error) {
 		knobs["blend"] = pos
 		n, h := designAt(d, knobs)
-		poles, err := networkPoles(n)
+		poles, err := n.Poles()
 		return h, poles, err
 	}, listenRate)
 	if err != nil {

@@ -118,19 +118,10 @@ func designAt(d *networks.Design, setting map[string]float64) (*networks.Network
 	return c.Network(), c.Compile()
 }
 
-// networkPoles returns a network's finite poles: from the networks package
-// when it computes them, else from the audio package's nodal stand-in.
-func networkPoles(n *networks.Network) ([]complex128, error) {
-	if p, ok := any(n).(interface{ Poles() ([]complex128, error) }); ok {
-		return p.Poles()
-	}
-	return audio.NodalPoles(n)
-}
-
 // filterAt fits the digital filter of a design at a setting.
 func filterAt(d *networks.Design, setting map[string]float64, rate float64) (*audio.Filter, error) {
 	n, h := designAt(d, setting)
-	poles, err := networkPoles(n)
+	poles, err := n.Poles()
 	if err != nil {
 		return nil, err
 	}
@@ -264,7 +255,7 @@ func runListen(a *app, cmd *cobra.Command, o listenFlags, args []string) error {
 					}
 					at[turnKnob] = pos
 					n, h := designAt(d, at)
-					poles, err := networkPoles(n)
+					poles, err := n.Poles()
 					return h, poles, err
 				}, rate)
 				if err != nil {

@@ -24,7 +24,7 @@ func benchDesign(b *testing.B) *networks.Design {
 func benchSetting(d *networks.Design) Setting {
 	return func(pos float64) (Response, []complex128, error) {
 		c := d.Chain(pos)
-		p, err := NodalPoles(c.Network())
+		p, err := c.Network().Poles()
 		return c.Compile(), p, err
 	}
 }

@@ -59,7 +59,7 @@ func testNetworks(t testing.TB) []network {
 	}
 	for _, b := range []float64{0, 0.5, 1} {
 		c := d.Chain(b)
-		p, err := NodalPoles(c.Network())
+		p, err := c.Network().Poles()
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -70,7 +70,7 @@ func testNetworks(t testing.TB) []network {
 	if err != nil {
 		t.Fatal(err)
 	}
-	p, err := NodalPoles(n)
+	p, err := n.Poles()
 	if err != nil {
 		t.Fatal(err)
 	}

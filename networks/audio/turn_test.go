@@ -16,7 +16,7 @@ func demoTurn(t testing.TB, rate float64) []*Filter {
 	}
 	fs, _, err := TurnFilters(func(pos float64) (Response, []complex128, error) {
 		c := d.Chain(pos)
-		p, err := NodalPoles(c.Network())
+		p, err := c.Network().Poles()
 		return c.Compile(), p, err
 	}, rate)
 	if err != nil {
