@@ -34,9 +34,9 @@ func ExampleFit() {
 	}
 	// Output:
 	// sections: 1 one-pole, 0 two-pole
-	//    100 Hz: network -0.017 dB, filter -0.013 dB
-	// 1591.5 Hz: network -3.010 dB, filter -3.009 dB
-	//  10000 Hz: network -16.072 dB, filter -16.065 dB
+	//    100 Hz: network -0.017 dB, filter -0.019 dB
+	// 1591.5 Hz: network -3.010 dB, filter -3.008 dB
+	//  10000 Hz: network -16.072 dB, filter -16.071 dB
 }
 
 // ITU-R BS.1770: a full-scale 997 Hz sine in one channel reads −3.01 LKFS.

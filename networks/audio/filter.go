@@ -14,6 +14,7 @@ import (
 // concurrent use; its running state lives in a State.
 type Filter struct {
 	Rate  float64 // sample rate, Hz
+	Delay int     // samples by which the output lags the network's; see Lookahead
 	reals []float64
 	resid []float64
 	pairs []pair
@@ -25,7 +26,8 @@ type pair struct{ a1, a2, b0, b1 float64 }
 // Sections returns the number of one-pole and second-order sections.
 func (f *Filter) Sections() (onePole, twoPole int) { return len(f.reals), len(f.pairs) }
 
-// Response returns the filter's frequency response at hz.
+// Response returns the filter's frequency response at hz with its Delay
+// taken back: the response Render gives.
 func (f *Filter) Response(hz float64) complex128 {
 	zi := cmplx.Exp(complex(0, -2*math.Pi*hz/f.Rate))
 	var h complex128
@@ -40,7 +42,7 @@ func (f *Filter) Response(hz float64) complex128 {
 		h += complex(c, 0) * t
 		t *= zi
 	}
-	return h
+	return h * cmplx.Exp(complex(0, 2*math.Pi*hz*float64(f.Delay)/f.Rate))
 }
 
 // State is one channel's running state of a Filter.
@@ -74,7 +76,8 @@ func (st *State) CopyFrom(o *State) {
 }
 
 // Process filters in into out, which must have in's length and must not
-// share its memory, advancing st. It does not allocate.
+// share its memory, advancing st. The output lags the network's by
+// f.Delay samples (Render takes that lag back). It does not allocate.
 func (f *Filter) Process(st *State, in, out []float64) {
 	n := len(in)
 	out = out[:n]
@@ -91,12 +94,14 @@ func (f *Filter) Process(st *State, in, out []float64) {
 		}
 		out[i] = v
 	}
-	if len(c) == 4 {
-		c0, c1, c2, c3 := c[0], c[1], c[2], c[3]
-		for i := max(head, 3); i < n; i++ {
-			out[i] = c0*in[i] + c1*in[i-1] + c2*in[i-2] + c3*in[i-3]
+	switch len(c) {
+	case 8:
+		c0, c1, c2, c3, c4, c5, c6, c7 := c[0], c[1], c[2], c[3], c[4], c[5], c[6], c[7]
+		for i := head; i < n; i++ {
+			x := in[i-7 : i+1 : i+1]
+			out[i] = c0*x[7] + c1*x[6] + c2*x[5] + c3*x[4] + c4*x[3] + c5*x[2] + c6*x[1] + c7*x[0]
 		}
-	} else {
+	default:
 		for i := head; i < n; i++ {
 			v := 0.0
 			x := in[i-len(c)+1 : i+1]

@@ -23,6 +23,15 @@ const (
 	FitFrom = 5.0
 	// FitPerDecade is the density of the fit's log-spaced grid.
 	FitPerDecade = 60
+	// Lookahead is how many samples late the fitted filter's output is.
+	// The fit's target is the network's response delayed by Lookahead
+	// samples, and Render reads the output that much later, so what is
+	// heard keeps the network's own phase and delay. The two samples give
+	// the fit room for the part of a band-limited response that comes
+	// before its impulse (a response whose impulse response jumps at t = 0,
+	// such as a one-pole RC or a network with a direct path, has one), which
+	// no causal filter could otherwise follow.
+	Lookahead = 2
 	// FIRTaps is the number of direct taps fitted beside the sections.
 	FIRTaps = 8
 	// ridge keeps the least-squares problem well posed when two poles are
@@ -36,15 +45,15 @@ const (
 	// over the whole band. Below PhaseFrom the fit's error is the relative
 	// complex error (magnitude and phase); above it, the error of the log
 	// magnitude only.
-	PhaseFrom = 0.15
-	// newtonSteps is the number of Gauss–Newton steps from the complex
-	// least-squares fit to the fit of that mixed error; it converges in
-	// three or four.
-	newtonSteps = 6
+	PhaseFrom = 0.2
+	// newtonSteps is the most Gauss–Newton steps taken from the complex
+	// least-squares fit towards the fit of that mixed error; a step is
+	// halved until it lowers the error, and the steps stop when none does.
+	newtonSteps = 10
 	// firPole: a pole whose digital image is smaller than this decays
 	// within the FIR taps' span, so the taps carry it instead of a section
 	// that would be nearly collinear with them.
-	firPole = 0.3
+	firPole = 0.01
 	// linearPoints are spread evenly up to the top of the band, where a log
 	// grid is thin and the fit is hardest.
 	linearPoints = 200
@@ -60,7 +69,7 @@ func Fit(h Response, poles []complex128, rate float64) (*Filter, error) {
 		return nil, fmt.Errorf("sample rate %v Hz must be positive and finite", rate)
 	}
 	T := 1 / rate
-	f := &Filter{Rate: rate}
+	f := &Filter{Rate: rate, Delay: Lookahead}
 	for _, p := range poles {
 		if cmplx.IsNaN(p) || cmplx.IsInf(p) {
 			return nil, fmt.Errorf("pole %v is not finite", p)
@@ -80,14 +89,17 @@ func Fit(h Response, poles []complex128, rate float64) (*Filter, error) {
 			f.pairs = append(f.pairs, pair{a1: 2 * real(z), a2: -real(z)*real(z) - imag(z)*imag(z)})
 		}
 	}
-	sort.Float64s(f.reals)
+	// Slowest first, so that filters fitted at nearby knob positions list
+	// their sections in the same order even when a fast pole is left to
+	// the taps in one and not in the other (see State.CopyFrom).
+	sort.Sort(sort.Reverse(sort.Float64Slice(f.reals)))
 	sort.Slice(f.pairs, func(i, j int) bool { return f.pairs[i].a2 < f.pairs[j].a2 })
 	f.fir = make([]float64, FIRTaps)
 
 	grid := fitGrid(rate)
 	target := make([]complex128, len(grid))
 	for i, hz := range grid {
-		target[i] = h.Transfer(hz)
+		target[i] = h.Transfer(hz) * cmplx.Exp(complex(0, -2*math.Pi*hz*float64(Lookahead)/rate))
 		if cmplx.IsNaN(target[i]) || cmplx.IsInf(target[i]) {
 			return nil, fmt.Errorf("the network has no response at %g Hz", hz)
 		}
@@ -203,14 +215,37 @@ func (f *Filter) refine(grid []float64, target []complex128) error {
 	b := mat.NewVecDense(rows+cols, nil)
 	scale := make([]float64, cols)
 	var x mat.VecDense
+	response := func(c []float64, i int) complex128 {
+		var hd complex128
+		for j, v := range B[i*cols : (i+1)*cols] {
+			hd += complex(c[j], 0) * v
+		}
+		return hd
+	}
+	cost := func(c []float64) float64 {
+		e := 0.0
+		for i, hz := range grid {
+			hd := response(c, i)
+			if hz/f.Rate < PhaseFrom {
+				d := cmplx.Abs(1 - hd/target[i])
+				e += d * d
+			} else {
+				d := math.Log(cmplx.Abs(target[i]) / cmplx.Abs(hd))
+				e += d * d
+			}
+		}
+		if math.IsNaN(e) {
+			return math.Inf(1)
+		}
+		return e
+	}
+	now := cost(c)
+	trial := make([]float64, cols)
 	for step := 0; step < newtonSteps; step++ {
 		r := 0
 		for i, hz := range grid {
 			row := B[i*cols : (i+1)*cols]
-			var hd complex128
-			for j, v := range row {
-				hd += complex(c[j], 0) * v
-			}
+			hd := response(c, i)
 			if hd == 0 || target[i] == 0 {
 				return fmt.Errorf("the fit has no response at %g Hz", hz)
 			}
@@ -251,8 +286,20 @@ func (f *Filter) refine(grid []float64, target []complex128) error {
 		if err := x.SolveVec(A, b); err != nil {
 			return fmt.Errorf("refining the filter: %v", err)
 		}
-		for j := range c {
-			c[j] += x.AtVec(j) / scale[j]
+		// Take the step, halved until it lowers the error.
+		better := false
+		for t := 1.0; t > 1e-3; t /= 2 {
+			for j := range c {
+				trial[j] = c[j] + t*x.AtVec(j)/scale[j]
+			}
+			if e := cost(trial); e < now {
+				now, better = e, true
+				copy(c, trial)
+				break
+			}
+		}
+		if !better {
+			break
 		}
 	}
 	copy(f.resid, c[:nr])

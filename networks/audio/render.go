@@ -134,7 +134,12 @@ func Render(parts []Part, channels int, gains []float64, sink func([][]float64) 
 		}
 		st := &stats[p]
 		st.Start = at
-		gap := int64(math.Round(part.Gap * float64(rate)))
+		// The filters' output lags by Delay samples: feed that many more
+		// zeros at the end and drop as many samples at the start, so the
+		// part keeps the network's own timing.
+		lag := int64(part.Filters[0].Delay)
+		skip := lag
+		gap := int64(math.Round(part.Gap*float64(rate))) + lag
 		srcCh := part.Source.Channels()
 		done := false
 		for {
@@ -165,9 +170,11 @@ func Render(parts []Part, channels int, gains []float64, sink func([][]float64) 
 			if n == 0 {
 				continue
 			}
+			drop := int(min(skip, int64(n)))
+			skip -= int64(drop)
 			for c := range out {
 				procs[c](in[c][:n], out[c][:n])
-				o := out[c][:n]
+				o := out[c][drop:n]
 				for i := range o {
 					o[i] *= g
 					a := math.Abs(o[i])
@@ -180,6 +187,9 @@ func Render(parts []Part, channels int, gains []float64, sink func([][]float64) 
 				}
 				blk[c] = o
 			}
+			if drop == n {
+				continue
+			}
 			if meter != nil {
 				meter.Add(blk)
 			}
@@ -189,8 +199,8 @@ func Render(parts []Part, channels int, gains []float64, sink func([][]float64) 
 					return nil, err
 				}
 			}
-			st.Frames += int64(n)
-			at += int64(n)
+			st.Frames += int64(n - drop)
+			at += int64(n - drop)
 		}
 		r.Close()
 		st.LoudnessLUFS = math.NaN()

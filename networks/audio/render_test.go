@@ -49,8 +49,9 @@ type network struct {
 }
 
 // testNetworks are the networks the accuracy is checked on: the demo
-// design's blend chain (an invented board) at three knob positions, and an
-// invented three-section network built as a general network.
+// design's blend chain (an invented board) at three knob positions, an
+// invented three-section network built as a general network, and an
+// invented resonant notch with complex poles.
 func testNetworks(t testing.TB) []network {
 	var out []network
 	d, err := networks.LoadDesign("../../testdata/demo-design.yaml")
@@ -74,7 +75,33 @@ func testNetworks(t testing.TB) []network {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return append(out, network{"three-section network", s, p})
+	out = append(out, network{"three-section network", s, p})
+	r := resonantNotch()
+	rs, err := r.Compile()
+	if err != nil {
+		t.Fatal(err)
+	}
+	rp, err := r.Poles()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return append(out, network{"resonant notch", rs, rp})
+}
+
+// resonantNotch is an invented network with complex poles (so the fit
+// uses second-order sections): a 10 kΩ source, a 100 mH inductor, 22 nF
+// and 470 Ω in series to ground (resonance near 3.4 kHz), and a 100 kΩ
+// load.
+func resonantNotch() *networks.Network {
+	var n networks.Network
+	n.Resistor("Rs", "in", "out", 10e3)
+	n.Inductor("L1", "out", "a", 0.1)
+	n.Capacitor("C1", "a", "b", 22e-9)
+	n.Resistor("R1", "b", networks.Ground, 470)
+	n.Resistor("Rload", "out", networks.Ground, 100e3)
+	n.SetSource("in", 0)
+	n.SetOutput("out")
+	return &n
 }
 
 // bassMidTreble is an invented passive network with three sections: a

@@ -11,11 +11,12 @@ import (
 // samples, then stays at 1. At position u between filters i and i+1 the
 // output is the crossfade (1−w)·y_i + w·y_{i+1} of the two filters'
 // outputs, with w updated every sample, so no step is ever heard. When the
-// knob reaches filter i+1, filter i stops and filter i+2 starts with the
-// state of filter i+1 (see State.CopyFrom): it is not heard starting cold,
-// and the small mismatch of the handed-over state is heard only through
-// its weight, which starts at 0 and rises slowly while the mismatch dies
-// away with the network's own time constants. Two filters run at any time.
+// knob reaches filter i+1, filter i stops and filter i+2 starts, unheard,
+// with the state of filter i+1 (see State.CopyFrom): it runs ahead for a
+// whole step of the knob before its weight rises from 0, so the small
+// mismatch of the handed-over state has died away with the network's own
+// time constants, and no filter is ever heard starting cold. Three filters
+// run at any time.
 type Turn struct {
 	Filters []*Filter
 	Frames  int64
@@ -23,7 +24,9 @@ type Turn struct {
 	states []*State
 	at     int64 // samples processed
 	lo     int   // the lower audible filter
+	ahead  int   // the highest filter running
 	ya, yb []float64
+	yc     []float64
 }
 
 // NewTurn returns a turn through filters over frames samples.
@@ -32,6 +35,7 @@ func NewTurn(filters []*Filter, frames int64) *Turn {
 	for i, f := range filters {
 		t.states[i] = f.NewState()
 	}
+	t.ahead = min(1, len(filters)-1)
 	return t
 }
 
@@ -41,7 +45,7 @@ const chunk = 256
 // Process filters in into out (the same length, not sharing memory).
 func (t *Turn) Process(in, out []float64) {
 	if len(t.ya) < chunk {
-		t.ya, t.yb = make([]float64, chunk), make([]float64, chunk)
+		t.ya, t.yb, t.yc = make([]float64, chunk), make([]float64, chunk), make([]float64, chunk)
 	}
 	k := len(t.Filters) - 1
 	if k == 0 {
@@ -54,7 +58,15 @@ func (t *Turn) Process(in, out []float64) {
 		u := t.pos(t.at)
 		for i := min(int(u), k-1); t.lo < i; {
 			t.lo++
-			t.states[t.lo+1].CopyFrom(t.states[t.lo])
+			if t.lo+1 > t.ahead {
+				// A jump of more than one filter in one chunk.
+				t.states[t.lo+1].CopyFrom(t.states[t.lo])
+				t.ahead = t.lo + 1
+			}
+		}
+		if next := t.lo + 2; next <= k && next > t.ahead {
+			t.states[next].CopyFrom(t.states[next-1])
+			t.ahead = next
 		}
 		if t.lo+1 <= k-1 {
 			// Stop the chunk where the knob reaches the next filter, so
@@ -67,6 +79,9 @@ func (t *Turn) Process(in, out []float64) {
 		ya, yb := t.ya[:n], t.yb[:n]
 		t.Filters[t.lo].Process(t.states[t.lo], in[:n], ya)
 		t.Filters[t.lo+1].Process(t.states[t.lo+1], in[:n], yb)
+		if t.ahead == t.lo+2 {
+			t.Filters[t.ahead].Process(t.states[t.ahead], in[:n], t.yc[:n])
+		}
 		w := u - float64(t.lo)
 		dw := rate
 		if t.at >= t.Frames {
