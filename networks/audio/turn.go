@@ -11,22 +11,24 @@ import (
 // samples, then stays at 1. At position u between filters i and i+1 the
 // output is the crossfade (1−w)·y_i + w·y_{i+1} of the two filters'
 // outputs, with w updated every sample, so no step is ever heard. When the
-// knob reaches filter i+1, filter i stops and filter i+2 starts, unheard,
-// with the state of filter i+1 (see State.CopyFrom): it runs ahead for a
-// whole step of the knob before its weight rises from 0, so the small
-// mismatch of the handed-over state has died away with the network's own
-// time constants, and no filter is ever heard starting cold. Three filters
-// run at any time.
+// knob reaches filter i+1, filter i stops; filter i+2 starts, unheard,
+// with the state of filter i+1 (see State.CopyFrom) three time constants of
+// the slowest section (at least MinPreroll samples, at most a step of the
+// knob) before its weight starts to rise from 0, so the small mismatch of
+// the handed-over state has died away by the time it is heard, and no
+// filter is ever heard starting cold. Two filters run, three while one
+// runs ahead.
 type Turn struct {
 	Filters []*Filter
 	Frames  int64
 
-	states []*State
-	at     int64 // samples processed
-	lo     int   // the lower audible filter
-	ahead  int   // the highest filter running
-	ya, yb []float64
-	yc     []float64
+	states  []*State
+	at      int64 // samples processed
+	lo      int   // the lower audible filter
+	ahead   int   // the highest filter running
+	preroll int64 // samples a filter runs unheard before its weight rises
+	ya, yb  []float64
+	yc      []float64
 }
 
 // NewTurn returns a turn through filters over frames samples.
@@ -36,8 +38,25 @@ func NewTurn(filters []*Filter, frames int64) *Turn {
 		t.states[i] = f.NewState()
 	}
 	t.ahead = min(1, len(filters)-1)
+	// Three time constants of the slowest section, at least MinPreroll.
+	slow := 0.0
+	for _, f := range filters {
+		for _, p := range f.reals {
+			slow = math.Max(slow, math.Abs(p))
+		}
+		for _, q := range f.pairs {
+			slow = math.Max(slow, math.Sqrt(math.Abs(q.a2)))
+		}
+	}
+	t.preroll = MinPreroll
+	if slow > 0 && slow < 1 {
+		t.preroll = max(t.preroll, int64(math.Ceil(-3/math.Log(slow))))
+	}
 	return t
 }
+
+// MinPreroll is the fewest samples a filter runs ahead, unheard.
+const MinPreroll = 1024
 
 // chunk is the longest run of samples processed with one pair of filters.
 const chunk = 256
@@ -64,16 +83,18 @@ func (t *Turn) Process(in, out []float64) {
 				t.ahead = t.lo + 1
 			}
 		}
-		if next := t.lo + 2; next <= k && next > t.ahead {
+		if next := t.lo + 2; next <= k && next > t.ahead && t.at >= t.reach(t.lo+1)-t.preroll {
 			t.states[next].CopyFrom(t.states[next-1])
 			t.ahead = next
 		}
 		if t.lo+1 <= k-1 {
 			// Stop the chunk where the knob reaches the next filter, so
-			// that the next pair takes over exactly there.
-			b := int64(math.Ceil(float64(t.lo+1) * float64(t.Frames) / float64(k)))
-			if b > t.at && b-t.at < int64(n) {
-				n = int(b - t.at)
+			// that the next pair takes over exactly there, and where the
+			// filter after it is to start.
+			for _, b := range []int64{t.reach(t.lo + 1), t.reach(t.lo+1) - t.preroll} {
+				if b > t.at && b-t.at < int64(n) {
+					n = int(b - t.at)
+				}
 			}
 		}
 		ya, yb := t.ya[:n], t.yb[:n]
@@ -96,6 +117,11 @@ func (t *Turn) Process(in, out []float64) {
 		t.at += int64(n)
 		in, out = in[n:], out[n:]
 	}
+}
+
+// reach is the sample at which the knob reaches filter j.
+func (t *Turn) reach(j int) int64 {
+	return int64(math.Ceil(float64(j) * float64(t.Frames) / float64(len(t.Filters)-1)))
 }
 
 // pos is the knob position at sample n in filter-index units.

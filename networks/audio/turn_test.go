@@ -40,41 +40,45 @@ func clickiness(y []float64, skip int) float64 {
 	return d4 / peak
 }
 
-// TestTurnHasNoClicks turns the blend knob over two seconds while a steady
-// 200 Hz sine plays, and looks for clicks and zipper noise with a fourth
-// difference (a steep high-pass): the turn must stay within 10⁻⁴ of its peak
-// (the sine alone gives 4·10⁻⁷), while the same turn made by switching
-// filters without a crossfade, the check's own control, must not.
+// TestTurnHasNoClicks turns the blend knob over two and over eight seconds
+// while a steady 200 Hz sine plays, and looks for clicks and zipper noise
+// with a fourth difference (a steep high-pass): the turn must stay within
+// 10⁻⁴ of its peak (the sine alone gives 4·10⁻⁷), while the same turn made
+// by switching filters without a crossfade, the check's own control, must
+// not. In the two-second turn a filter runs ahead for a whole step of the
+// knob; in the eight-second one, for its pre-roll only.
 func TestTurnHasNoClicks(t *testing.T) {
 	const rate = 48000.0
 	fs := demoTurn(t, rate)
-	n := int(2.5 * rate)
-	x := make([]float64, n)
-	for i := range x {
-		x[i] = math.Sin(2 * math.Pi * 200 * float64(i) / rate)
-	}
-	y := make([]float64, n)
-	tr := NewTurn(fs, int64(2*rate))
-	for i := 0; i < n; i += 1000 { // odd block sizes on purpose
-		j := min(i+1000, n)
-		tr.Process(x[i:j], y[i:j])
-	}
-	got := clickiness(y, int(0.2*rate))
-	t.Logf("%d filters; fourth difference %.2g of the peak", len(fs), got)
-	if got > 1e-4 {
-		t.Errorf("the turn clicks: fourth difference %.2g of the peak", got)
-	}
+	for _, secs := range []float64{2, 8} {
+		n := int((secs + 0.5) * rate)
+		x := make([]float64, n)
+		for i := range x {
+			x[i] = math.Sin(2 * math.Pi * 200 * float64(i) / rate)
+		}
+		y := make([]float64, n)
+		tr := NewTurn(fs, int64(secs*rate))
+		for i := 0; i < n; i += 1000 { // odd block sizes on purpose
+			j := min(i+1000, n)
+			tr.Process(x[i:j], y[i:j])
+		}
+		got := clickiness(y, int(0.2*rate))
+		t.Logf("%g s turn, %d filters, pre-roll %d samples: fourth difference %.2g of the peak", secs, len(fs), tr.preroll, got)
+		if got > 1e-4 {
+			t.Errorf("the %g s turn clicks: fourth difference %.2g of the peak", secs, got)
+		}
 
-	// The control: switch filters at each grid step with fresh states.
-	z := make([]float64, n)
-	step := int(2 * rate / float64(len(fs)-1))
-	for k, i := 0, 0; i < n; k, i = k+1, i+step {
-		f := fs[min(k, len(fs)-1)]
-		j := min(i+step, n)
-		f.Process(f.NewState(), x[i:j], z[i:j])
-	}
-	if c := clickiness(z, int(0.2*rate)); c < 1e-2 {
-		t.Errorf("the control (switched filters) shows only %.2g: the check cannot see clicks", c)
+		// The control: switch filters at each grid step with fresh states.
+		z := make([]float64, n)
+		step := int(secs * rate / float64(len(fs)-1))
+		for k, i := 0, 0; i < n; k, i = k+1, i+step {
+			f := fs[min(k, len(fs)-1)]
+			j := min(i+step, n)
+			f.Process(f.NewState(), x[i:j], z[i:j])
+		}
+		if c := clickiness(z, int(0.2*rate)); c < 1e-2 {
+			t.Errorf("the control (switched filters) shows only %.2g: the check cannot see clicks", c)
+		}
 	}
 }
 
