@@ -122,11 +122,11 @@ func (f *Filter) Process(st *State, in, out []float64) {
 }
 
 // sections adds the sections' outputs to out. The one-pole sections run
-// two or four at a time, so that their independent recursions overlap in
+// two, three or four at a time, so that their independent recursions overlap in
 // the processor.
 func (f *Filter) sections(st *State, in, out []float64) {
 	k := 0
-	for ; k+4 <= len(f.reals); k += 4 {
+	for ; k+4 <= len(f.reals) && len(f.reals)-k != 5; k += 4 {
 		p0, p1, p2, p3 := f.reals[k], f.reals[k+1], f.reals[k+2], f.reals[k+3]
 		r0, r1, r2, r3 := f.resid[k], f.resid[k+1], f.resid[k+2], f.resid[k+3]
 		s0, s1, s2, s3 := st.s[k], st.s[k+1], st.s[k+2], st.s[k+3]
@@ -138,6 +138,19 @@ func (f *Filter) sections(st *State, in, out []float64) {
 			out[i] += r0*s0 + r1*s1 + r2*s2 + r3*s3
 		}
 		st.s[k], st.s[k+1], st.s[k+2], st.s[k+3] = s0, s1, s2, s3
+	}
+	if len(f.reals)-k == 5 || len(f.reals)-k == 3 {
+		p0, p1, p2 := f.reals[k], f.reals[k+1], f.reals[k+2]
+		r0, r1, r2 := f.resid[k], f.resid[k+1], f.resid[k+2]
+		s0, s1, s2 := st.s[k], st.s[k+1], st.s[k+2]
+		for i, x := range in {
+			s0 = x + p0*s0
+			s1 = x + p1*s1
+			s2 = x + p2*s2
+			out[i] += r0*s0 + r1*s1 + r2*s2
+		}
+		st.s[k], st.s[k+1], st.s[k+2] = s0, s1, s2
+		k += 3
 	}
 	for ; k+2 <= len(f.reals); k += 2 {
 		p0, p1 := f.reals[k], f.reals[k+1]
