@@ -167,7 +167,7 @@ func runListen(a *app, cmd *cobra.Command, o listenFlags, args []string) error {
 	}
 	makeup := audio.Makeup{Auto: true}
 	if o.makeup != "auto" {
-		v, err := strconv.ParseFloat(strings.TrimSuffix(strings.TrimSpace(o.makeup), "dB"), 64)
+		v, err := strconv.ParseFloat(strings.TrimSpace(strings.TrimSuffix(strings.TrimSpace(o.makeup), "dB")), 64)
 		if err != nil || math.IsNaN(v) || math.Abs(v) > 120 {
 			return usageErrorf("--makeup %q: use auto or a gain in dB from -120 to 120, e.g. 20", o.makeup)
 		}
@@ -203,8 +203,10 @@ func runListen(a *app, cmd *cobra.Command, o listenFlags, args []string) error {
 	var src audio.Source
 	var label string
 	if o.input != "" {
-		if cmd.Flags().Changed("signal") {
-			return usageErrorf("--input and --signal: give one of them")
+		for _, f := range []string{"signal", "rate", "seconds"} {
+			if cmd.Flags().Changed(f) {
+				return usageErrorf("--input and --%s: --%s is for a built-in signal; the input file sets its own", f, f)
+			}
 		}
 		w, err := audio.NewWAVFile(o.input)
 		if err != nil {

@@ -89,6 +89,17 @@ func TestListenABAndMatch(t *testing.T) {
 	}
 }
 
+func TestListenTurnAB(t *testing.T) {
+	wav := filepath.Join(t.TempDir(), "turns.wav")
+	s := listenSheet(t, demoFile, exampleFile, "--turn", "blend=1", "--makeup", "-3 dB", "-o", wav)
+	if len(s.Cues) != 2 || s.Cues[0].Turn == nil || s.Cues[1].Turn == nil || s.Cues[0].Design == s.Cues[1].Design {
+		t.Fatalf("cues %+v", s.Cues)
+	}
+	if s.Cues[1].StartS != 1.5 || s.Cues[0].GainDB != -3 {
+		t.Errorf("second turn starts at %v s (want 1.5), gain %v dB (want -3)", s.Cues[1].StartS, s.Cues[0].GainDB)
+	}
+}
+
 func TestListenTurnOfAnInput(t *testing.T) {
 	dir := t.TempDir()
 	in := filepath.Join(dir, "in.wav")
@@ -129,6 +140,15 @@ func TestListenClipWarns(t *testing.T) {
 func TestListenRefuses(t *testing.T) {
 	dir := t.TempDir()
 	notWAV := writeTemp(t, "riff.wav", "this is text\n")
+	// A WAV file cut short after its header announced more.
+	whole := filepath.Join(t.TempDir(), "whole.wav")
+	f, _ := os.Create(whole)
+	w := audio.NewWAVWriter(f, 48000, 1, false)
+	w.Write([][]float64{audio.PinkNoise(48000, 1)})
+	w.Close()
+	f.Close()
+	data, _ := os.ReadFile(whole)
+	cut := writeTemp(t, "cut.wav", string(data[:len(data)/2]))
 	empty := writeTemp(t, "empty.wav", "")
 	out := filepath.Join(dir, "out.wav")
 	for _, c := range []struct {
@@ -137,6 +157,8 @@ func TestListenRefuses(t *testing.T) {
 	}{
 		{[]string{"--input", notWAV}, "not a WAV file"},
 		{[]string{"--input", empty}, "empty"},
+		{[]string{"--input", cut}, "truncated"},
+		{[]string{"--input", cut, "--seconds", "3"}, "--seconds is for a built-in signal"},
 		{[]string{"--input", filepath.Join(dir, "missing.wav")}, "missing.wav"},
 		{[]string{"--knob", "tone=0,1"}, `no knob "tone"`},
 		{[]string{"--knob", "blend=0,2"}, "bad knob position"},
