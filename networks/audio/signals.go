@@ -7,7 +7,8 @@ import (
 )
 
 // The built-in test signals, made here (nothing recorded). Each is mono,
-// deterministic (a fixed seed) and peaks at −6 dBFS.
+// deterministic (a fixed seed), faded in and out over FadeSeconds and peaks
+// at −6 dBFS.
 
 // SignalNames lists the built-in signals in the order the command shows.
 var SignalNames = []string{"pluck", "chord", "noise", "sweep"}
@@ -31,8 +32,23 @@ func Signal(name string, rate, seconds float64) ([]float64, error) {
 	default:
 		return nil, fmt.Errorf("unknown signal %q: use pluck, chord, noise or sweep", name)
 	}
+	fade(x, rate)
 	normalize(x, 0.5)
 	return x, nil
+}
+
+// FadeSeconds is the length of the raised-cosine fade at each end of a
+// built-in signal, so that a signal cut short (a note still ringing, noise)
+// does not click.
+const FadeSeconds = 0.02
+
+func fade(x []float64, rate float64) {
+	m := min(int(FadeSeconds*rate), len(x)/2)
+	for i := 0; i < m; i++ {
+		g := 0.5 - 0.5*math.Cos(math.Pi*float64(i)/float64(m))
+		x[i] *= g
+		x[len(x)-1-i] *= g
+	}
 }
 
 // phrase is an invented phrase: string frequencies in Hz and start times
