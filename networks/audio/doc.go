@@ -1,10 +1,12 @@
 // Package audio renders sound through a network: it turns a network's exact
 // response into a digital filter (Fit), runs the filter on blocks of samples
 // (Filter, State), turns a knob while it plays by crossfading filters fitted
-// at a grid of knob positions (Turn), makes the built-in test signals
-// (Pluck, Chord, PinkNoise, Sweep), measures loudness as ITU-R BS.1770 defines
-// it (Loudness), reads and writes WAV files (OpenWAV, CreateWAV) and strings
-// these into a program of parts played one after another (Render).
+// at a grid of knob positions (TurnFilters, Turn), makes the built-in test
+// signals (Signal: Pluck, Chord, PinkNoise, Sweep), measures loudness as
+// ITU-R BS.1770 defines it (LoudnessMeter), sets the output's level (Gains),
+// reads and writes WAV files (OpenWAV, NewWAVWriter) and strings these into
+// parts played one after another (Render). It knows networks only through
+// their response and poles (Response; networks.Network.Poles gives them).
 //
 // The digital filter is a modal (parallel) form. Each finite pole p of the
 // network, in rad/s, becomes the digital pole exp(p·T) (the matched-z
