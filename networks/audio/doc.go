@@ -16,7 +16,9 @@
 // are then fitted to the network's exact response H(jω) on a dense grid up
 // to 0.45 of the sample rate: first the linear least-squares fit of the
 // complex response weighted by 1/|H| (relative error, phase included), then
-// Gauss–Newton steps that keep that error below 0.15 of the sample rate
-// and fit only the log magnitude above it, where a real digital filter
-// cannot follow the network's phase to the Nyquist frequency.
+// Gauss–Newton steps that keep that error below 0.2 of the sample rate and
+// fit only the log magnitude above it, where a real digital filter cannot
+// follow the network's phase to the Nyquist frequency. The target is the
+// network's response delayed by Lookahead samples, which Render takes back,
+// so the sound keeps the network's own phase and delay.
 package audio
