@@ -34,6 +34,9 @@ const (
 	listenTurn      = 8.0 // a turn of the knob
 	listenGap       = 0.5
 	listenPositions = "0,0.5,1"
+	// maxSignalSeconds bounds a built-in signal, which is held in memory
+	// (at 192 kHz, 120 s is 180 MB); an input file is streamed.
+	maxSignalSeconds = 120
 )
 
 func newListenCmd(a *app) *cobra.Command {
@@ -227,8 +230,8 @@ func runListen(a *app, cmd *cobra.Command, o listenFlags, args []string) error {
 			}
 			secs = turnSeconds
 		}
-		if !(secs > 0 && secs <= 3600) {
-			return usageErrorf("--seconds %v: use more than 0 and at most 3600", secs)
+		if !(secs > 0 && secs <= maxSignalSeconds) {
+			return usageErrorf("a built-in signal of %v s: use more than 0 and at most %v s (--seconds, or the seconds of --turn)", secs, maxSignalSeconds)
 		}
 		x, err := audio.Signal(o.signal, float64(o.rate), secs)
 		if err != nil {
@@ -291,12 +294,12 @@ func runListen(a *app, cmd *cobra.Command, o listenFlags, args []string) error {
 		var err error
 		stats, err = audio.Render(parts, channels, gains, w.Write)
 		if err != nil {
-			return err
+			return badInput(err)
 		}
 		return w.Close()
 	}, append(append([]string{}, args...), o.input)...)
 	if err != nil {
-		return badInput(err)
+		return err
 	}
 
 	sheet := cueSheet{Output: o.out, SampleRate: src.Rate(), Channels: channels, Signal: label, Makeup: o.makeup, LoudnessMatched: o.match}
