@@ -66,6 +66,7 @@ type Compiled struct {
 	level        bool
 	la, lb       float64 // level pot: series (wiper to top) and shunt (wiper to ground)
 	loadG, loadC float64
+	gc           gainConsts // GainDB's constants (chainfast.go)
 }
 
 // Compile returns the chain's fast evaluator. The chain's values are not
@@ -90,6 +91,7 @@ func (c *Chain) CompileInto(k *Compiled) {
 	if !math.IsInf(c.Load.R, 1) {
 		k.loadG = 1 / c.Load.R
 	}
+	k.prepare()
 }
 
 // sourceZ returns the source's series impedance at angular frequency w.
@@ -132,8 +134,15 @@ func (k *Compiled) Transfer(f float64) complex128 {
 // GainDB returns 20·log10|V(out)/V(source)| at frequency f. It is the
 // search's inner loop, so it skips the blend matrix's common factor −1/y12:
 // the row (1, Zs) times the blend matrix scaled by −y12 is
-// (y22 + Zs·det Y, 1 + Zs·y11), and |H| = |y12| / |A'|.
-func (k *Compiled) GainDB(f float64) float64 {
+// (y22 + Zs·det Y, 1 + Zs·y11), and |H| = |y12| / |A'|. It is computed in
+// real arithmetic with the parts' conductances prepared at compile time,
+// and stays finite however far down a long ladder takes the gain (see
+// gainDB in chainfast.go).
+func (k *Compiled) GainDB(f float64) float64 { return k.gainDB(f) }
+
+// gainDBComplex is GainDB in the complex two-port arithmetic of Transfer,
+// kept as the reference that gainDB is tested against.
+func (k *Compiled) gainDBComplex(f float64) float64 {
 	w := 2 * math.Pi * f
 	zs := k.sourceZ(w)
 	y11, y12, y22 := k.blend.admittances(w, k.ra, k.rb)

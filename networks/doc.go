@@ -14,6 +14,12 @@
 // transmission (ABCD) matrices; it equals the nodal solver to rounding and is
 // what the search and the studies call millions of times.
 //
+// Any Network, not only a Chain, also compiles to its poles, zeros and gain
+// constant (CompileZPK): the poles and zeros come from the nodal equations'
+// matrix pencil by shift and invert (Poles, Zeros), the gain constant from
+// the nodal solver at one frequency. A ZPK evaluates a frequency without
+// allocating, and keeps its gain finite however deep an attenuation is.
+//
 // A Design is the design file (YAML) as a value: Load and ParseDesign read it
 // strictly, reporting the line and key of any error, and WriteYAML writes it
 // back. The metrics the tool reports (gain at 1 kHz, the scoop, the output

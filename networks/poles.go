@@ -34,7 +34,7 @@ type shifted struct {
 
 // maxShiftCond is the largest condition number of G + σC accepted for a
 // shift; past it another shift is tried.
-const maxShiftCond = 1e12
+const maxShiftCond = 1e15
 
 // reduce forms the reduction at shift sigma.
 func (p *pencil) reduce(u, v []float64, r int, sigma float64) (*shifted, error) {
@@ -151,11 +151,12 @@ func (n *Network) shiftScale() float64 {
 // analysis is the pencil of a network with its factorisation of C and the
 // reduction at a well-chosen shift.
 type analysis struct {
-	p     *pencil
-	u, v  []float64
-	r     int
-	s     *shifted
-	poles []complex128
+	p      *pencil
+	u, v   []float64
+	r      int
+	s      *shifted
+	poles  []complex128
+	solver *Solver // the same network's nodal solver
 }
 
 // analyse builds the pencil and reduces it, choosing the shift in two
@@ -168,14 +169,18 @@ func (n *Network) analyse() (*analysis, error) {
 	if err != nil {
 		return nil, err
 	}
-	if _, err := n.Compile(); err != nil { // floating nodes, named
+	solver, err := n.Compile() // also finds floating nodes, named
+	if err != nil {
 		return nil, err
 	}
 	u, v, r, err := p.factorC()
 	if err != nil {
 		return nil, err
 	}
-	an := &analysis{p: p, u: u, v: v, r: r}
+	an := &analysis{p: p, u: u, v: v, r: r, solver: solver}
+	if p.out < 0 {
+		return an, nil // the output is the ideal source's node: H = 1, no poles
+	}
 	sigma := n.shiftScale()
 	if err := an.at(sigma); err != nil {
 		return nil, err
@@ -246,7 +251,7 @@ const infiniteEigen = 1e-14
 // (G + sC)·x = b·u with the source shorted (see pencil). For a real shift
 // σ > 0 — a passive network has no pole in the right half-plane, so G + σC
 // is regular there; shifts are retried a decade off when it is
-// ill-conditioned (condition number above 10¹²) — the eigenvalues μ of
+// ill-conditioned (condition number above 10¹⁵) — the eigenvalues μ of
 // M = (G + σC)⁻¹·C give the poles s = σ − 1/μ. gonum's mat.Eigen computes μ
 // from the equivalent r×r matrix K = Vᵀ(G + σC)⁻¹U, where C = U·Vᵀ is a
 // factorisation of exact rank r read from the circuit's graph (pencil.factorC):

@@ -44,8 +44,8 @@ func (n *Network) CompileZPK() (*ZPK, error) {
 	return &k, nil
 }
 
-// CompileZPKInto compiles the network into k, reusing k's storage; on error
-// k is left unchanged.
+// CompileZPKInto compiles the network into k, reusing k's storage. After an
+// error k holds nothing usable until it is compiled again.
 func (n *Network) CompileZPKInto(k *ZPK) error {
 	an, err := n.analyse()
 	if err != nil {
@@ -61,16 +61,11 @@ func (n *Network) CompileZPKInto(k *ZPK) error {
 	if err != nil {
 		return err
 	}
-
-	solver, err := n.Compile()
-	if err != nil {
-		return err
-	}
+	solver := an.solver
 	var next ZPK
 	next.poles, next.zeros = k.poles, k.zeros
 	next.realZ, next.realP, next.pairZ, next.pairP = k.realZ, k.realP, k.pairZ, k.pairP
-	next.set(an.poles, zs)
-	if err := next.calibrate(solver, an.s.sigma); err != nil {
+	if err := next.fit(an, zs, solver); err != nil {
 		return err
 	}
 	*k = next
@@ -102,6 +97,140 @@ func factors(roots []complex128, re []float64, pairs []pairFactor) ([]float64, [
 		}
 	}
 	return re, pairs
+}
+
+// fit sets the roots and the gain constant. Which of the candidates for
+// zeros at infinity (zeroSet) are finite is decided by the ring heuristic
+// of shifted.zeros unless another choice agrees better with the nodal
+// solver: each choice that keeps conjugate pairs whole is calibrated and
+// compared with the solver at the candidates' own frequencies (where a
+// zero wrongly kept or dropped shows most), at decades around the shift
+// and across the audio band, by the largest |ln(H/H_solver)|; the
+// heuristic's choice stands unless another halves that error.
+func (k *ZPK) fit(an *analysis, zs zeroSet, s *Solver) error {
+	if len(zs.cand) == 0 {
+		k.set(an.poles, zs.sure)
+		return k.calibrate(s, an.s.sigma)
+	}
+	var ws []float64
+	for _, p := range an.poles {
+		ws = append(ws, cmplx.Abs(p))
+	}
+	for _, f := range []float64{1e-2, 1e-1, 1, 10, 100, 1e3} {
+		ws = append(ws, an.s.sigma*f)
+	}
+	for _, f := range []float64{10, 100, 1e3, 1e4, 1e5} {
+		ws = append(ws, 2*math.Pi*f)
+	}
+	// The candidates' own frequencies come last: the fit far out there is
+	// judged by the choice of zeros, not by the retry below.
+	core := len(ws)
+	for _, c := range zs.cand {
+		ws = append(ws, cmplx.Abs(c))
+	}
+	var pts []fitPoint
+	for i, w := range ws {
+		if !(w > 0) {
+			continue
+		}
+		// The solver's rounding is relative only while its numbers stay
+		// well inside the range of a float64.
+		if h := s.Transfer(w / (2 * math.Pi)); cmplx.Abs(h) > 1e-290 && !cmplx.IsNaN(h) && !cmplx.IsInf(h) {
+			pts = append(pts, fitPoint{w, h, i < core})
+		}
+	}
+	best, bestMis, coreMis := k.choose(an, zs, s, pts)
+	// A zero at infinity of high order spreads into a wide ring that can
+	// swallow finite zeros far from the shift: if the fit at the poles,
+	// the shift and the band is poor, the
+	// zeros are sought again at shifts a decade apart, up to ten times the
+	// fastest pole and down to a tenth of the slowest, and the best fit
+	// is kept.
+	if coreMis > 1e-9 {
+		lo, hi := math.Inf(1), 0.0
+		for _, p := range an.poles {
+			if a := cmplx.Abs(p); a > 1e-9*an.s.sigma {
+				lo, hi = math.Min(lo, a), math.Max(hi, a)
+			}
+		}
+		var shifts []float64
+		for f := 10.0; an.s.sigma*f <= 10*hi && len(shifts) < 12; f *= 10 {
+			shifts = append(shifts, an.s.sigma*f)
+		}
+		for f := 0.1; an.s.sigma*f >= lo/10 && len(shifts) < 24; f /= 10 {
+			shifts = append(shifts, an.s.sigma*f)
+		}
+		for _, sigma := range shifts {
+			red, err := an.p.reduce(an.u, an.v, an.r, sigma)
+			if err != nil {
+				continue
+			}
+			zs2, err := red.zeros()
+			if err != nil {
+				continue
+			}
+			if set, m, _ := k.choose(an, zs2, s, pts); m < bestMis/2 {
+				best, bestMis = set, m
+			}
+		}
+	}
+	k.set(an.poles, best)
+	return k.calibrate(s, an.s.sigma)
+}
+
+// fitPoint is the nodal solver's transfer at an angular frequency.
+type fitPoint struct {
+	w    float64
+	h    complex128
+	core bool // a pole's, the shift's or the band's frequency
+}
+
+// choose polishes the candidates of zs and returns the set of zeros, among
+// those that keep the first j candidates for each j that keeps conjugate
+// pairs whole, that fits the solver's points best, with its misfit, the
+// largest |ln(H/H_solver)|; the ring heuristic's j (zs.keep) stands unless
+// another halves its misfit.
+func (k *ZPK) choose(an *analysis, zs zeroSet, s *Solver, pts []fitPoint) (set []complex128, misfit, core float64) {
+	for i, c := range zs.cand {
+		if imag(c) >= 0 {
+			zs.cand[i] = an.p.polish(c)
+		}
+	}
+	for i, c := range zs.cand { // conjugates follow their polished partner
+		if imag(c) < 0 && i > 0 && imag(zs.cand[i-1]) > 0 {
+			zs.cand[i] = cmplx.Conj(zs.cand[i-1])
+		}
+	}
+	fit := func(j int) (all, core float64) {
+		k.set(an.poles, zs.with(j))
+		if k.calibrate(s, an.s.sigma) != nil {
+			return math.Inf(1), math.Inf(1)
+		}
+		for _, p := range pts {
+			q, e := k.product(p.w)
+			if k.negK {
+				q = -q
+			}
+			d := cmplx.Log(q/p.h) + complex(k.logK+float64(e)*math.Ln2, 0)
+			m := cmplx.Abs(complex(real(d), math.Remainder(imag(d), 2*math.Pi)))
+			all = math.Max(all, m)
+			if p.core {
+				core = math.Max(core, m)
+			}
+		}
+		return all, core
+	}
+	best := zs.keep
+	misfit, core = fit(best)
+	for j := 0; j <= len(zs.cand); j++ {
+		if j == zs.keep || (j > 0 && j < len(zs.cand) && imag(zs.cand[j]) != 0 && zs.cand[j] == cmplx.Conj(zs.cand[j-1])) {
+			continue
+		}
+		if m, c := fit(j); m < misfit/2 {
+			best, misfit, core = j, m, c
+		}
+	}
+	return zs.with(best), misfit, core
 }
 
 // calibrate sets k from the solver at the reference frequency.
@@ -211,8 +340,8 @@ func (k *ZPK) Phase(f float64) float64 {
 const dBPerLn = 10 / math.Ln10
 
 // GainDB returns 20·log10|V(out)/V(source)| at frequency f, as
-// Response.GainDB means it. It is finite for any f > 0 at which H has no
-// zero exactly: |H|² is formed as a product of its real factors in ω²
+// Response.GainDB means it. It is finite for any f between 0 and 10¹⁵⁰ Hz
+// (ω² must not overflow) at which H has no zero exactly: |H|² is formed as a product of its real factors in ω²
 // (x + a² for a real root a, (|z|² − x)² + (2·Re z)²·x for a pair) with the
 // numerator and denominator kept in range by moving powers of two into an
 // integer exponent, and only their mantissas' ratio goes through the
@@ -294,25 +423,15 @@ func renorm(v float64, e, sign int) (float64, int) {
 // Method: the pencil is reduced at a real shift σ exactly as for Poles, to
 // the order r of the circuit's independent capacitor voltages and inductor
 // currents; in λ = 1/(σ − s) it is then an ordinary state space with a
-// direct term H(σ), whose zeros are the eigenvalues of one r×r matrix.
-// Eigenvalues that cannot be told from λ = 0 within their error bound are
-// the zeros at infinity and are dropped (shifted.zeros). Each zero is then
-// polished by Newton's method on H evaluated from the unreduced pencil
-// (pencil.refineZeros). As with Poles, a mode the source cannot excite or
+// direct term H(σ), whose zeros are the eigenvalues of one r×r matrix
+// (shifted.zeros). The zeros at infinity appear as a ring of eigenvalues
+// around λ = 0, told apart by their error bounds and checked against the
+// nodal solver (ZPK.fit). As with Poles, a mode the source cannot excite or
 // the output cannot see appears among the zeros as well as among the poles.
 func (n *Network) Zeros() ([]complex128, error) {
-	an, err := n.analyse()
+	k, err := n.CompileZPK()
 	if err != nil {
 		return nil, err
 	}
-	if an.p.out < 0 {
-		return nil, nil
-	}
-	zs, err := an.s.zeros()
-	if err != nil {
-		return nil, err
-	}
-
-	sortRoots(zs)
-	return zs, nil
+	return k.Zeros(), nil
 }
