@@ -341,7 +341,7 @@ func TestHelpHasExamples(t *testing.T) {
 // analysis of the chosen design.
 func TestReadmeShowsRealTables(t *testing.T) {
 	readme := string(mustRead(t, "../../README.md"))
-	for _, g := range []string{"analyze-demo.txt", "demo-synth.txt"} {
+	for _, g := range []string{"analyze-demo.txt", "demo-synth.txt", "listen-demo.txt"} {
 		want := string(mustRead(t, filepath.Join(top, "golden", g)))
 		if !strings.Contains(readme, "```text\n"+want+"```") {
 			t.Errorf("README differs from testdata/golden/%s: paste the golden file into it", g)

@@ -180,3 +180,14 @@ func TestListenRefuses(t *testing.T) {
 		t.Errorf("no -o: exit %d", code)
 	}
 }
+
+// TestListenDemoTable keeps the cue sheet of the demo design in a golden
+// file, which the README shows.
+func TestListenDemoTable(t *testing.T) {
+	dir := t.TempDir()
+	code, out, errOut := tw(t, "listen", demoFile, "-o", filepath.Join(dir, "board.wav"))
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	golden(t, "listen-demo.txt", strings.ReplaceAll(out, dir+string(filepath.Separator), ""))
+}
