@@ -1,6 +1,7 @@
 package audio
 
 import (
+	"encoding/binary"
 	"errors"
 	"fmt"
 	"io"
@@ -54,13 +55,24 @@ func OpenWAV(path string) (*WAVReader, error) {
 	return r, nil
 }
 
-func (r *WAVReader) open() error {
+func (r *WAVReader) open() (err error) {
+	defer func() {
+		if p := recover(); p != nil {
+			err = fmt.Errorf("malformed WAV file (%v)", p)
+		}
+	}()
 	st, err := r.f.Stat()
 	if err != nil {
 		return err
 	}
 	if st.Size() == 0 {
 		return errors.New("the file is empty")
+	}
+	if err := checkChunks(r.f, st.Size()); err != nil {
+		return err
+	}
+	if _, err := r.f.Seek(0, io.SeekStart); err != nil {
+		return err
 	}
 	d := wav.NewDecoder(r.f)
 	d.ReadInfo()
@@ -93,20 +105,53 @@ func (r *WAVReader) open() error {
 	return nil
 }
 
+// checkChunks walks the RIFF file's chunk headers before the WAV library
+// reads them, because the library allocates whatever size a header claims:
+// every chunk before the data chunk must fit in the file, and the format
+// chunk must have a format chunk's size.
+func checkChunks(f io.ReaderAt, size int64) error {
+	var h [12]byte
+	if _, err := f.ReadAt(h[:], 0); err != nil || string(h[0:4]) != "RIFF" || string(h[8:12]) != "WAVE" {
+		return errors.New("not a WAV file: no RIFF/WAVE header")
+	}
+	for pos := int64(12); ; {
+		var c [8]byte
+		if _, err := f.ReadAt(c[:], pos); err != nil {
+			return errors.New("no data chunk: the file is truncated or not a WAV file")
+		}
+		id, n := string(c[0:4]), int64(binary.LittleEndian.Uint32(c[4:8]))
+		if id == "data" {
+			return nil
+		}
+		if pos+8+n > size {
+			return fmt.Errorf("the %q chunk claims %d bytes, more than the file holds: the file is truncated or not a WAV file", id, n)
+		}
+		if id == "fmt " && (n < 16 || n > 64) {
+			return fmt.Errorf("a format chunk of %d bytes: not a WAV file", n)
+		}
+		pos += 8 + n + n&1
+	}
+}
+
 // Read fills block (one slice per channel, all of one length) and returns
 // the number of frames read; at the end it returns 0 and io.EOF. A file
 // shorter than its header says is an error.
-func (r *WAVReader) Read(block [][]float64) (int, error) {
+func (r *WAVReader) Read(block [][]float64) (n int, err error) {
+	defer func() {
+		if p := recover(); p != nil {
+			n, err = 0, fmt.Errorf("%s: malformed WAV data (%v)", r.Path, p)
+		}
+	}()
 	want := len(block[0])
 	if len(r.buf.Data) < want*r.Channels {
 		r.buf.Data = make([]int, want*r.Channels)
 	}
 	r.buf.Data = r.buf.Data[:want*r.Channels]
-	n, err := r.d.PCMBuffer(r.buf)
+	got, err := r.d.PCMBuffer(r.buf)
 	if err != nil {
 		return 0, fmt.Errorf("%s: %w", r.Path, err)
 	}
-	frames := n / r.Channels
+	frames := got / r.Channels
 	if frames == 0 {
 		if r.read < r.Frames {
 			return 0, fmt.Errorf("%s: truncated: the header announces %d frames, the file holds %d", r.Path, r.Frames, r.read)

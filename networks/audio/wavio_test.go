@@ -17,9 +17,15 @@ import (
 // ramp of frames frames per channel, values in the encoding's integers.
 func writePCM(t *testing.T, path string, rate, depth, channels, tag, frames int) {
 	t.Helper()
+	if err := writePCMFile(path, rate, depth, channels, tag, frames); err != nil {
+		t.Fatal(err)
+	}
+}
+
+func writePCMFile(path string, rate, depth, channels, tag, frames int) error {
 	f, err := os.Create(path)
 	if err != nil {
-		t.Fatal(err)
+		return err
 	}
 	e := wav.NewEncoder(f, rate, depth, channels, tag)
 	buf := &goaudio.IntBuffer{Format: &goaudio.Format{NumChannels: channels, SampleRate: rate}, SourceBitDepth: depth}
@@ -34,12 +40,12 @@ func writePCM(t *testing.T, path string, rate, depth, channels, tag, frames int)
 		}
 	}
 	if err := e.Write(buf); err != nil {
-		t.Fatal(err)
+		return err
 	}
 	if err := e.Close(); err != nil {
-		t.Fatal(err)
+		return err
 	}
-	f.Close()
+	return f.Close()
 }
 
 func TestWAVReadsEncodings(t *testing.T) {
