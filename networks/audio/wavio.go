@@ -68,7 +68,8 @@ func (r *WAVReader) open() (err error) {
 	if st.Size() == 0 {
 		return errors.New("the file is empty")
 	}
-	if err := checkChunks(r.f, st.Size()); err != nil {
+	sub, err := checkChunks(r.f, st.Size())
+	if err != nil {
 		return err
 	}
 	if _, err := r.f.Seek(0, io.SeekStart); err != nil {
@@ -83,12 +84,16 @@ func (r *WAVReader) open() (err error) {
 		return errors.New("not a WAV file: no RIFF/WAVE header with a fmt chunk")
 	}
 	r.Channels, r.Rate, r.depth = int(d.NumChans), int(d.SampleRate), int(d.BitDepth)
+	tag := d.WavAudioFormat
+	if tag == wavExtensible {
+		tag = sub
+	}
 	switch {
-	case (d.WavAudioFormat == wavPCM || d.WavAudioFormat == wavExtensible) && (r.depth == 16 || r.depth == 24):
-	case d.WavAudioFormat == wavFloat && r.depth == 32:
+	case tag == wavPCM && (r.depth == 16 || r.depth == 24):
+	case tag == wavFloat && r.depth == 32:
 		r.float = true
 	default:
-		return fmt.Errorf("unsupported encoding (format tag %d, %d bits): use 16- or 24-bit PCM or 32-bit float", d.WavAudioFormat, r.depth)
+		return fmt.Errorf("unsupported encoding (format %d, %d bits): use 16- or 24-bit PCM or 32-bit float", tag, r.depth)
 	}
 	if r.Rate < MinRate || r.Rate > MaxRate {
 		return fmt.Errorf("sample rate %d Hz is outside %d–%d Hz", r.Rate, MinRate, MaxRate)
@@ -109,25 +114,35 @@ func (r *WAVReader) open() (err error) {
 // reads them, because the library allocates whatever size a header claims:
 // every chunk before the data chunk must fit in the file, and the format
 // chunk must have a format chunk's size.
-func checkChunks(f io.ReaderAt, size int64) error {
+// It returns the format code of a WAVE_FORMAT_EXTENSIBLE file's subformat
+// (the first two bytes of its GUID: 1 PCM, 3 float), 0 for other files.
+func checkChunks(f io.ReaderAt, size int64) (sub uint16, err error) {
 	var h [12]byte
 	if _, err := f.ReadAt(h[:], 0); err != nil || string(h[0:4]) != "RIFF" || string(h[8:12]) != "WAVE" {
-		return errors.New("not a WAV file: no RIFF/WAVE header")
+		return 0, errors.New("not a WAV file: no RIFF/WAVE header")
 	}
 	for pos := int64(12); ; {
 		var c [8]byte
 		if _, err := f.ReadAt(c[:], pos); err != nil {
-			return errors.New("no data chunk: the file is truncated or not a WAV file")
+			return 0, errors.New("no data chunk: the file is truncated or not a WAV file")
 		}
 		id, n := string(c[0:4]), int64(binary.LittleEndian.Uint32(c[4:8]))
 		if id == "data" {
-			return nil
+			return sub, nil
 		}
 		if pos+8+n > size {
-			return fmt.Errorf("the %q chunk claims %d bytes, more than the file holds: the file is truncated or not a WAV file", id, n)
+			return 0, fmt.Errorf("the %q chunk claims %d bytes, more than the file holds: the file is truncated or not a WAV file", id, n)
 		}
-		if id == "fmt " && (n < 16 || n > 64) {
-			return fmt.Errorf("a format chunk of %d bytes: not a WAV file", n)
+		if id == "fmt " {
+			if n < 16 || n > 64 {
+				return 0, fmt.Errorf("a format chunk of %d bytes: not a WAV file", n)
+			}
+			var fm [26]byte
+			if n >= 26 {
+				if _, err := f.ReadAt(fm[:], pos+8); err == nil && binary.LittleEndian.Uint16(fm[0:2]) == wavExtensible {
+					sub = binary.LittleEndian.Uint16(fm[24:26])
+				}
+			}
 		}
 		pos += 8 + n + n&1
 	}
