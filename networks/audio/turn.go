@@ -71,7 +71,7 @@ func (t *Turn) Process(in, out []float64) {
 		t.Filters[0].Process(t.states[0], in, out)
 		return
 	}
-	rate := float64(k) / float64(t.Frames) // knob travel per sample, in filters
+	step := float64(k) / float64(t.Frames) // knob travel per sample, in filters
 	for len(in) > 0 {
 		n := min(chunk, len(in))
 		u := t.pos(t.at)
@@ -91,10 +91,12 @@ func (t *Turn) Process(in, out []float64) {
 			// Stop the chunk where the knob reaches the next filter, so
 			// that the next pair takes over exactly there, and where the
 			// filter after it is to start.
-			for _, b := range []int64{t.reach(t.lo + 1), t.reach(t.lo+1) - t.preroll} {
-				if b > t.at && b-t.at < int64(n) {
-					n = int(b - t.at)
-				}
+			b := t.reach(t.lo + 1)
+			if b > t.at && b-t.at < int64(n) {
+				n = int(b - t.at)
+			}
+			if b -= t.preroll; b > t.at && b-t.at < int64(n) {
+				n = int(b - t.at)
 			}
 		}
 		ya, yb := t.ya[:n], t.yb[:n]
@@ -104,7 +106,7 @@ func (t *Turn) Process(in, out []float64) {
 			t.Filters[t.ahead].Process(t.states[t.ahead], in[:n], t.yc[:n])
 		}
 		w := u - float64(t.lo)
-		dw := rate
+		dw := step
 		if t.at >= t.Frames {
 			dw = 0
 		}
