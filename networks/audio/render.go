@@ -114,6 +114,9 @@ func Render(parts []Part, channels int, gains []float64, sink func([][]float64) 
 			return nil, fmt.Errorf("part %d has no filter", p+1)
 		}
 		rate := part.Source.Rate()
+		if part.Source.Channels() > channels {
+			return nil, fmt.Errorf("part %d has %d channels, the output %d", p+1, part.Source.Channels(), channels)
+		}
 		procs := make([]func(in, out []float64), channels)
 		for c := range procs {
 			if len(part.Filters) == 1 {
@@ -146,7 +149,7 @@ func Render(parts []Part, channels int, gains []float64, sink func([][]float64) 
 			var n int
 			if !done {
 				n, err = r.Read(in[:srcCh])
-				if errors.Is(err, io.EOF) {
+				if errors.Is(err, io.EOF) || (n == 0 && err == nil) {
 					done, err = true, nil
 				}
 				if err != nil {
