@@ -201,7 +201,7 @@ func TestDemoWritesFiles(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
-	for _, f := range []string{"targets.yaml", "design.yaml", "synth.txt", "analysis.txt", "analysis.json", "sweep.txt", "tolerance.txt", "curves.png", "curves-phase.svg", "sweep.png", "tolerance.png"} {
+	for _, f := range []string{"targets.yaml", "design.yaml", "synth.txt", "analysis.txt", "analysis.json", "sweep.txt", "tolerance.txt", "curves.png", "curves-phase.svg", "sweep.png", "tolerance.png", "listen.wav"} {
 		p := filepath.Join(dir, f)
 		if _, err := os.Stat(p); err != nil {
 			t.Errorf("demo did not write %s", f)
@@ -341,7 +341,7 @@ func TestHelpHasExamples(t *testing.T) {
 // analysis of the chosen design.
 func TestReadmeShowsRealTables(t *testing.T) {
 	readme := string(mustRead(t, "../../README.md"))
-	for _, g := range []string{"analyze-demo.txt", "demo-synth.txt"} {
+	for _, g := range []string{"analyze-demo.txt", "demo-synth.txt", "listen-demo.txt"} {
 		want := string(mustRead(t, filepath.Join(top, "golden", g)))
 		if !strings.Contains(readme, "```text\n"+want+"```") {
 			t.Errorf("README differs from testdata/golden/%s: paste the golden file into it", g)

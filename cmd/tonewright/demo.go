@@ -10,6 +10,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"tonewright/networks"
+	"tonewright/networks/audio"
 	"tonewright/synth"
 )
 
@@ -34,7 +35,9 @@ section of a fuzz-style board whose gain stage has 6.8 kΩ output impedance,
 driving a 100 kΩ audio-taper level pot into a 1 MΩ amplifier input. From the
 voice wanted (a scoop 8 dB deep at 700 Hz, a 9 kHz corner) it synthesizes the
 parts in E24/E12 values, analyses and plots the chosen design, sweeps the
-source impedance and runs a tolerance study. It writes everything into DIR
+source impedance and runs a tolerance study, and renders listen.wav: the
+built-in plucked phrase while the blend knob turns from 0 to 1. It writes
+everything into DIR
 (default ./tonewright-demo) and prints what it wrote.`,
 		Example: `  tonewright demo
   tonewright demo /tmp/voicing`,
@@ -132,6 +135,9 @@ func runDemo(a *app, dir string) error {
 	if err := tolerancePlot(d, tr).render(path("tolerance.png")); err != nil {
 		return err
 	}
+	if err := demoListen(d, path("listen.wav")); err != nil {
+		return err
+	}
 
 	fmt.Fprintf(a.out, "Synthesis from the demo targets (an invented board):\n\n%s\n", report.String())
 	fmt.Fprintf(a.out, "Analysis of the chosen design:\n\n%s\n", table.String())
@@ -143,4 +149,42 @@ func runDemo(a *app, dir string) error {
 		return &unmetError{msg: unmetMessage(res)}
 	}
 	return nil
+}
+
+// demoTurnSeconds is how long the demo's knob turn lasts.
+const demoTurnSeconds = 8
+
+// demoListen writes the demo's sound: the built-in plucked phrase at 48 kHz
+// while the blend knob turns from 0 to 1, peaking at −1 dBFS.
+func demoListen(d *networks.Design, path string) error {
+	x, err := audio.Signal("pluck", listenRate, demoTurnSeconds)
+	if err != nil {
+		return err
+	}
+	knobs := designKnobs(d)
+	fs, _, err := audio.TurnFilters(func(pos float64) (audio.Response, []complex128, error) {
+		knobs["blend"] = pos
+		n, h, err := designAt(d, knobs)
+		if err != nil {
+			return nil, nil, err
+		}
+		poles, err := n.Poles()
+		return h, poles, err
+	}, listenRate)
+	if err != nil {
+		return err
+	}
+	parts := []audio.Part{{Source: &audio.Samples{SampleRate: listenRate, Data: x}, Filters: fs, TurnFrames: demoTurnSeconds * listenRate, Gap: listenGap}}
+	measured, err := audio.Render(parts, 1, nil, nil)
+	if err != nil {
+		return err
+	}
+	gains := audio.Gains(measured, false, audio.Makeup{Auto: true})
+	return writeStream(path, func(f *os.File) error {
+		w := audio.NewWAVWriter(f, listenRate, 1, false)
+		if _, err := audio.Render(parts, 1, gains, w.Write); err != nil {
+			return err
+		}
+		return w.Close()
+	})
 }

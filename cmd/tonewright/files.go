@@ -76,6 +76,47 @@ func writeFile(path string, data []byte, inputs ...string) error {
 	return nil
 }
 
+// writeStream writes a file too large to hold in memory: fill writes it
+// to a temporary file in path's directory, which is renamed into place only
+// when fill succeeds, so a failure leaves nothing partly written. The output
+// must be a regular file (or not exist yet): fill may seek.
+func writeStream(path string, fill func(f *os.File) error, inputs ...string) error {
+	if err := checkOutput(path, inputs...); err != nil {
+		return err
+	}
+	if st, err := os.Stat(path); err == nil && !st.Mode().IsRegular() {
+		return usageErrorf("output %s is not a regular file: give a file name", path)
+	}
+	if real, err := filepath.EvalSymlinks(path); err == nil {
+		path = real
+	}
+	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp-*")
+	if err != nil {
+		return badInput(fmt.Errorf("cannot write %s: %w", path, errors.Unwrap(err)))
+	}
+	name := tmp.Name()
+	fail := func(err error) error {
+		tmp.Close()
+		os.Remove(name)
+		return err
+	}
+	if err := fill(tmp); err != nil {
+		return fail(err)
+	}
+	if err := tmp.Chmod(0o644); err != nil {
+		return fail(fmt.Errorf("writing %s: %w", path, err))
+	}
+	if err := tmp.Close(); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	if err := os.Rename(name, path); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	return nil
+}
+
 // checkOutput refuses, before any work is done, an output path that is a
 // directory, lies in a directory that does not exist, or is the same file
 // as one of the inputs, or the same file as another output of the command

@@ -18,9 +18,8 @@ import (
 
 func init() { register(newLiveCmd) }
 
-// liveRenderer plays designs on the live page; nil until audio rendering
-// is part of the build.
-var liveRenderer live.Renderer
+// liveRenderer plays designs on the live page (live_audio.go).
+var liveRenderer live.Renderer = pageRenderer{}
 
 func newLiveCmd(a *app) *cobra.Command {
 	var compare, addr, saveAs string
