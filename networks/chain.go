@@ -122,7 +122,22 @@ func (k *Compiled) GainDB(f float64) float64 { return k.gainDB(f) }
 // logarithm, for scanning. It may underflow to 0 where GainDB is finite.
 func (k *Compiled) Power(f float64) float64 {
 	n, d, e := k.powerParts(f)
+	if e == 0 {
+		return n / d
+	}
 	return math.Ldexp(n/d, -2*e)
+}
+
+// fillPower writes Power(freqs[i]) into out[i].
+func (k *Compiled) fillPower(freqs, out []float64) {
+	for i, f := range freqs {
+		n, d, e := k.powerParts(f)
+		if e == 0 {
+			out[i] = n / d
+		} else {
+			out[i] = math.Ldexp(n/d, -2*e)
+		}
+	}
 }
 
 // gainDBComplex is GainDB in the complex two-port arithmetic of Transfer,

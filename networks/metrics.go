@@ -72,6 +72,12 @@ type Meter struct {
 	pr    PowerResponse
 }
 
+// powerFiller is a PowerResponse that fills a whole grid at once, saving
+// a dynamic call per point.
+type powerFiller interface {
+	fillPower(freqs, out []float64)
+}
+
 // level says how a Meter holds the gains of its last scan: in dB, or as
 // power ratios |H|² (pw), which need no logarithm. The figures' thresholds
 // are in dB; by and db convert between the two.
@@ -328,10 +334,15 @@ func (m *Meter) LowCorner(r Response) (hz float64, found bool) {
 // they are all normal numbers, else in dB, and sets m.lv to say which.
 func (m *Meter) fill(r Response, grid, g []float64) []float64 {
 	if p, ok := r.(PowerResponse); ok {
+		if pf, ok := r.(powerFiller); ok {
+			pf.fillPower(grid, g)
+		} else {
+			for i, f := range grid {
+				g[i] = p.Power(f)
+			}
+		}
 		normal := true
-		for i, f := range grid {
-			v := p.Power(f)
-			g[i] = v
+		for _, v := range g {
 			normal = normal && v >= 0x1p-1000 && v <= 0x1p1000
 		}
 		if normal {
