@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/json"
+	"math"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -103,6 +104,40 @@ func TestStudiesOnNetlist(t *testing.T) {
 		}
 		if !strings.Contains(out, "treble") && !strings.Contains(out, "bass") && !strings.Contains(out, "mid") {
 			t.Errorf("%v: the setting is not named:\n%s", args, out)
+		}
+	}
+}
+
+// Designs at the validator's limits (invented): twenty sections of 1 GΩ and
+// 1 F behind a blend of extreme parts, and every part at 1 mΩ or 1 fF, in
+// the blend form and in the netlist form. analyze reports finite figures
+// (thousands of dB down, as computed) and its JSON is valid.
+func TestAnalyzeAtValidatorLimits(t *testing.T) {
+	secs := strings.Repeat("  - {r: 1G, c: 1}\n", 20)
+	for name, text := range map[string]string{
+		"deep.yaml": "tone:\n  network: blend\n  lowpass: {r: 1G, c: 1}\n  highpass: {c: 1e-15, r: 1m}\n  pot: 1e12\nfilters:\n" + secs + "load: {r: 1M}\n",
+		"tiny.yaml": "tone:\n  network: blend\n  lowpass: {r: 1m, c: 1e-15}\n  highpass: {c: 1e-15, r: 1m}\n  pot: 1m\nfilters: [{r: 1m, c: 1e-15}]\nload: {r: 1m}\n",
+		"deep-netlist.yaml": "tone:\n  network: netlist\n  parts:\n    R1: {r: 1G, from: in, to: a}\n    C1: {c: 1, from: a, to: gnd}\n    R2: {r: 1G, from: a, to: out}\n    C2: {c: 1, from: out, to: gnd}\nfilters:\n" + secs + "load: {r: 1M}\n",
+	} {
+		p := writeTemp(t, name, text)
+		code, out, errs := tw(t, "analyze", p, "--json")
+		if code != 0 {
+			t.Errorf("%s: exit %d: %s", name, code, errs)
+			continue
+		}
+		var v map[string]any
+		if err := json.Unmarshal([]byte(out), &v); err != nil {
+			t.Errorf("%s: %v", name, err)
+			continue
+		}
+		for _, pos := range v["positions"].([]any) {
+			g := pos.(map[string]any)["gain_1k_db"].(float64)
+			if math.IsNaN(g) || math.IsInf(g, 0) {
+				t.Errorf("%s: gain %v", name, g)
+			}
+		}
+		if code, out, _ := tw(t, "analyze", p); code != 0 || strings.Contains(out, "Inf") || strings.Contains(out, "NaN") {
+			t.Errorf("%s: table exit %d:\n%s", name, code, out)
 		}
 	}
 }
