@@ -115,8 +115,8 @@ func TestStudiesOnNetlist(t *testing.T) {
 func TestAnalyzeAtValidatorLimits(t *testing.T) {
 	secs := strings.Repeat("  - {r: 1G, c: 1}\n", 20)
 	for name, text := range map[string]string{
-		"deep.yaml": "tone:\n  network: blend\n  lowpass: {r: 1G, c: 1}\n  highpass: {c: 1e-15, r: 1m}\n  pot: 1e12\nfilters:\n" + secs + "load: {r: 1M}\n",
-		"tiny.yaml": "tone:\n  network: blend\n  lowpass: {r: 1m, c: 1e-15}\n  highpass: {c: 1e-15, r: 1m}\n  pot: 1m\nfilters: [{r: 1m, c: 1e-15}]\nload: {r: 1m}\n",
+		"deep.yaml":         "tone:\n  network: blend\n  lowpass: {r: 1G, c: 1}\n  highpass: {c: 1e-15, r: 1m}\n  pot: 1e12\nfilters:\n" + secs + "load: {r: 1M}\n",
+		"tiny.yaml":         "tone:\n  network: blend\n  lowpass: {r: 1m, c: 1e-15}\n  highpass: {c: 1e-15, r: 1m}\n  pot: 1m\nfilters: [{r: 1m, c: 1e-15}]\nload: {r: 1m}\n",
 		"deep-netlist.yaml": "tone:\n  network: netlist\n  parts:\n    R1: {r: 1G, from: in, to: a}\n    C1: {c: 1, from: a, to: gnd}\n    R2: {r: 1G, from: a, to: out}\n    C2: {c: 1, from: out, to: gnd}\nfilters:\n" + secs + "load: {r: 1M}\n",
 	} {
 		p := writeTemp(t, name, text)
