@@ -71,6 +71,7 @@ func (f *panels) render(path string, inputs ...string) error {
 		return err
 	}
 	var plots [][]*plot.Plot
+	var legends []*sideLegend // beside each panel, on a white panel, covering no curve
 	for i, pn := range f.Panels {
 		p := plot.New()
 		if i == 0 {
@@ -111,14 +112,7 @@ func (f *panels) render(path string, inputs ...string) error {
 		if empty && pn.YMax > pn.YMin {
 			p.Y.Min, p.Y.Max = pn.YMin, pn.YMax
 		}
-		p.Legend.Top, p.Legend.Left = !pn.LegendBottom, !pn.LegendRight
-		p.Legend.XOffs, p.Legend.YOffs = vg.Points(8), -vg.Points(4)
-		if pn.LegendRight {
-			p.Legend.XOffs = -vg.Points(8)
-		}
-		if pn.LegendBottom {
-			p.Legend.YOffs = vg.Points(8)
-		}
+		var entries []legendEntry
 		for k, s := range pn.Series {
 			col := colorFor(k, len(pn.Series))
 			first := true
@@ -133,7 +127,7 @@ func (f *panels) render(path string, inputs ...string) error {
 				}
 				p.Add(l)
 				if first && s.Label != "" {
-					p.Legend.Add(s.Label, l)
+					entries = append(entries, legendEntry{s.Label, l})
 					first = false
 				}
 				if len(seg) == 1 {
@@ -147,25 +141,45 @@ func (f *panels) render(path string, inputs ...string) error {
 			}
 		}
 		plots = append(plots, []*plot.Plot{p})
+		legends = append(legends, newSideLegend(entries))
 	}
 	w, h := vg.Length(9)*vg.Inch, vg.Length(3.6*float64(len(plots))+0.8)*vg.Inch
+	var side vg.Length
+	for _, l := range legends {
+		side = max(side, l.width())
+	}
+	if side > 0 {
+		side += vg.Points(16)
+		w += side
+	}
+	svg := strings.ToLower(filepath.Ext(path)) != ".png"
 	var canvas vg.CanvasWriterTo
-	if strings.ToLower(filepath.Ext(path)) == ".png" {
+	if !svg {
 		canvas = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(110), vgimg.UseBackgroundColor(color.White))}
 	} else {
-		canvas = vgsvg.New(w, h)
+		canvas = vgsvg.NewWith(vgsvg.UseWH(w, h), vgsvg.EmbedFonts(true))
 	}
 	dc := draw.New(canvas)
+	main := draw.Crop(dc, 0, -side, 0, 0)
 	tiles := draw.Tiles{Rows: len(plots), Cols: 1, PadTop: vg.Points(4), PadBottom: vg.Points(4), PadLeft: vg.Points(4), PadRight: vg.Points(10), PadY: vg.Points(14)}
-	cs := plot.Align(plots, tiles, dc)
+	cs := plot.Align(plots, tiles, main)
 	for i := range plots {
 		plots[i][0].Draw(cs[i][0])
+		top := cs[i][0].Max.Y
+		if i == 0 {
+			top -= plots[0][0].Title.TextStyle.Height(plots[0][0].Title.Text) + vg.Points(10)
+		}
+		legends[i].draw(dc, dc.Max.X-side+vg.Points(6), top)
 	}
 	var buf bytes.Buffer
 	if _, err := canvas.WriteTo(&buf); err != nil {
 		return fmt.Errorf("drawing %s: %w", path, err)
 	}
-	return writeFile(path, buf.Bytes(), inputs...)
+	data := buf.Bytes()
+	if svg {
+		data = svgFontFallback(data)
+	}
+	return writeFile(path, data, inputs...)
 }
 
 // tenths labels a 0..1 axis at every tenth.
