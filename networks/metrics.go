@@ -267,9 +267,7 @@ func (m *Meter) sideExtreme(r Response, from, to int, gs, sign float64) float64 
 // than CornerDrop below it up to 10 × band high (located by bisection in
 // log f). found is false when there is no such frequency.
 func (m *Meter) Corner(r Response) (hz float64, found bool) {
-	g := m.fill(r, m.upper, m.gu)
-	k := -1
-	m.lv.forExtrema(g, -1, func(i, j int) { k = i })
+	g, k := m.scanForReference(r, m.upper, m.gu, true)
 	fref, gref := m.upper[0], m.lv.db(g[0])
 	if k > 0 {
 		fref, gref = m.golden(r, -1, m.upper[k-1], m.upper[k+1])
@@ -300,14 +298,8 @@ func (m *Meter) Corner(r Response) (hz float64, found bool) {
 // below it and below which G stays more than CornerDrop below it down to
 // band low / 10. found is false when there is none.
 func (m *Meter) LowCorner(r Response) (hz float64, found bool) {
-	g := m.fill(r, m.lower, m.gl)
+	g, k := m.scanForReference(r, m.lower, m.gl, false)
 	last := len(g) - 1
-	k := -1
-	m.lv.forExtrema(g, -1, func(i, j int) {
-		if k < 0 {
-			k = i
-		}
-	})
 	fref, gref := m.lower[last], m.lv.db(g[last])
 	if k > 0 {
 		fref, gref = m.golden(r, -1, m.lower[k-1], m.lower[k+1])
@@ -328,6 +320,91 @@ func (m *Meter) LowCorner(r Response) (hz float64, found bool) {
 		hi = fref
 	}
 	return m.bisect(r, hi, m.lower[j], target), true
+}
+
+// cornerBlock is how many grid points the corners' scans evaluate at a
+// time.
+const cornerBlock = GridPerDecade / 4
+
+// scanForReference evaluates r on grid a block at a time, from the top end
+// (down, for the corner) or from the bottom end (up, for the low corner),
+// until it meets the corner's reference: the interior local maximum
+// nearest that end, by forExtrema's test on the same values a whole scan
+// gives. It returns the levels and the maximum's index, or −1 when there
+// is none. The levels are filled from the maximum (or the far end) to the
+// near end, which is all the corner's definition reads.
+func (m *Meter) scanForReference(r Response, grid, g []float64, down bool) ([]float64, int) {
+	n := len(grid)
+	m.lv = level{}
+	if p, ok := r.(PowerResponse); ok {
+		m.lv, m.pr = level{pw: true}, p
+	}
+	fill := func(a, b int) { // fills [a, b), in dB everywhere once a power is out of range
+		if !m.fillRange(r, grid, g, a, b) {
+			m.lv = level{}
+			if down {
+				m.fillRange(r, grid, g, a, n)
+			} else {
+				m.fillRange(r, grid, g, 0, b)
+			}
+		}
+	}
+	k := -1
+	if down {
+		for lo := n; lo > 0 && k < 0; {
+			next := max(0, lo-cornerBlock)
+			fill(next, lo)
+			// The maxima whose test reads only [next, lo+1] (and a
+			// plateau's end above) are the ones not tested before.
+			end := min(n, lo+2)
+			for end < n && g[end-1] == g[end-2] {
+				end++
+			}
+			m.lv.forExtrema(g[next:end], -1, func(i, j int) { k = next + i })
+			lo = next
+		}
+		return g, k
+	}
+	for hi, from := 0, 0; hi < n && k < 0; {
+		next := min(n, hi+cornerBlock)
+		fill(hi, next)
+		for next < n && g[next-1] == g[next-2] { // a plateau reaching the block's end
+			fill(next, next+1)
+			next++
+		}
+		m.lv.forExtrema(g[from:next], -1, func(i, j int) {
+			if k < 0 {
+				k = from + i
+			}
+		})
+		hi, from = next, max(0, next-2)
+	}
+	return g, k
+}
+
+// fillRange fills the levels at grid indices [a, b): as powers when m.lv
+// says so and they are all normal numbers (it reports false when one is
+// not), else in dB.
+func (m *Meter) fillRange(r Response, grid, g []float64, a, b int) bool {
+	if !m.lv.pw {
+		for i := a; i < b; i++ {
+			g[i] = r.GainDB(grid[i])
+		}
+		return true
+	}
+	if pf, ok := r.(powerFiller); ok {
+		pf.fillPower(grid[a:b], g[a:b])
+	} else {
+		for i := a; i < b; i++ {
+			g[i] = m.pr.Power(grid[i])
+		}
+	}
+	for _, v := range g[a:b] {
+		if !(v >= 0x1p-1000 && v <= 0x1p1000) {
+			return false
+		}
+	}
+	return true
 }
 
 // fill evaluates r on grid into g, as power ratios when r gives them and
