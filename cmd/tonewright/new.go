@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"fmt"
+	"os"
 	"strings"
 	"text/tabwriter"
 
@@ -15,7 +16,7 @@ func init() { register(newNewCmd) }
 
 func newNewCmd(a *app) *cobra.Command {
 	var out string
-	var list, netlist bool
+	var list, netlist, force bool
 	c := &cobra.Command{
 		Use:   "new TOPOLOGY [-o FILE]",
 		Short: "Write a starting design file for a built-in tone network",
@@ -59,6 +60,9 @@ part. Without -o the design goes to stdout. --list lists the topologies.`,
 				if err := checkOutput(out); err != nil {
 					return err
 				}
+				if _, err := os.Stat(out); err == nil && !force {
+					return usageErrorf("%s exists: new writes a starting design and will not replace a file (it may be your board); choose another name, or give --force", out)
+				}
 			}
 			data := starterFile(tp, netlist)
 			if out == "" {
@@ -75,6 +79,7 @@ part. Without -o the design goes to stdout. --list lists the topologies.`,
 	c.Flags().StringVarP(&out, "output", "o", "", "write the design to `FILE` (default stdout)")
 	c.Flags().BoolVar(&list, "list", false, "list the built-in topologies, one a line")
 	c.Flags().BoolVar(&netlist, "netlist", false, "write the circuit in the netlist form, part by part")
+	c.Flags().BoolVar(&force, "force", false, "replace the -o file if it exists")
 	return c
 }
 

@@ -171,3 +171,18 @@ func TestReadmeKnobComparison(t *testing.T) {
 		}
 	}
 }
+
+// new will not replace an existing file (it may be the user's board)
+// unless told to with --force.
+func TestNewRefusesExistingFile(t *testing.T) {
+	p := writeTemp(t, "board.yaml", "my board\n")
+	if code, _, errs := tw(t, "new", "tilt", "-o", p); code != 2 || !strings.Contains(errs, "exists") {
+		t.Errorf("exit %d, %q", code, errs)
+	}
+	if got := string(mustRead(t, p)); got != "my board\n" {
+		t.Errorf("the file was changed: %q", got)
+	}
+	if code, _, errs := tw(t, "new", "tilt", "-o", p, "--force"); code != 0 {
+		t.Errorf("--force: exit %d, %s", code, errs)
+	}
+}
