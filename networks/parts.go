@@ -16,6 +16,18 @@ const (
 	PartInductor
 )
 
+// Unit returns the SI unit of the kind's value: Ω for resistors and pots,
+// F for capacitors, H for inductors.
+func (k PartKind) Unit() string {
+	switch k {
+	case PartCapacitor:
+		return "F"
+	case PartInductor:
+		return "H"
+	}
+	return "Ω"
+}
+
 func (k PartKind) String() string {
 	switch k {
 	case PartResistor:

@@ -120,10 +120,7 @@ func partsList(d *networks.Design) partsListJSON {
 		if found {
 			continue
 		}
-		unit := "Ω"
-		if p.Kind == networks.PartCapacitor {
-			unit = "F"
-		}
+		unit := p.Kind.Unit()
 		l := partsLine{Quantity: 1, Value: p.Value, Marking: withUnit(p.Value, 4, unit), Kind: p.Kind.String(),
 			TolerancePct: 100 * tol, ToleranceBasis: basis, Parts: []listedPart{{p.Name, p.Role}}}
 		if isPot {

@@ -92,7 +92,7 @@ func writeSensitivity(w io.Writer, d *networks.Design, rep *networks.Sensitivity
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 		for i, p := range ranked {
 			v, _ := m.Get(&p)
-			unit := map[string]string{"resistor": "Ω", "capacitor": "F", "pot": "Ω"}[p.Kind]
+			unit := map[string]string{"resistor": "Ω", "capacitor": "F", "pot": "Ω", "inductor": "H"}[p.Kind]
 			fmt.Fprintf(tw, "  %d\t%s\t%s\t%s\t%s\n", i+1, p.Name, withUnit(p.Value, 3, unit), signed(v), p.Role)
 		}
 		tw.Flush()

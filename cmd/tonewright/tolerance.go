@@ -171,7 +171,7 @@ func writeTolerance(w io.Writer, d *networks.Design, rep *networks.ToleranceRepo
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "part\tvalue\ttolerance\tfrom")
 	for _, p := range rep.Parts {
-		unit := map[string]string{"resistor": "Ω", "capacitor": "F", "pot": "Ω"}[p.Kind]
+		unit := map[string]string{"resistor": "Ω", "capacitor": "F", "pot": "Ω", "inductor": "H"}[p.Kind]
 		fmt.Fprintf(tw, "%s\t%s\t± %s\t%s\n", p.Name, withUnit(p.Value, 3, unit), pct(p.Tolerance), p.Basis)
 	}
 	if rep.Tapers > 0 {
