@@ -256,14 +256,19 @@ func curvesCSV(d *networks.Design, ss []networks.Setting, perDecade int) ([]byte
 		es[i] = e
 	}
 	buf := b.Bytes()
-	for _, f := range networks.LogGrid(d.Band.From, d.Band.To, perDecade) {
+	prev := make([]float64, len(es)) // each column's last phase, for unwrapping
+	for i, f := range networks.LogGrid(d.Band.From, d.Band.To, perDecade) {
 		buf = strconv.AppendFloat(buf, f, 'g', 6, 64)
-		for _, e := range es {
-			h := e.Transfer(f)
+		for k, e := range es {
+			ph := cmplx.Phase(e.Transfer(f)) * 180 / math.Pi
+			if i > 0 { // unwrapped as the plots draw it: no 360° jumps
+				ph -= 360 * math.Round((ph-prev[k])/360)
+			}
+			prev[k] = ph
 			buf = append(buf, ',')
 			buf = strconv.AppendFloat(buf, e.GainDB(f), 'f', 4, 64)
 			buf = append(buf, ',')
-			buf = strconv.AppendFloat(buf, cmplx.Phase(h)*180/math.Pi, 'f', 3, 64)
+			buf = strconv.AppendFloat(buf, ph, 'f', 3, 64)
 		}
 		buf = append(buf, '\n')
 	}
