@@ -50,11 +50,12 @@ type Scoop struct {
 }
 
 // Peak is a boost: the interior maximum of the gain at Hz, its height above
-// the mean of the lowest gains on either side, and the balance between
-// them.
+// the mean of the lowest gains on either side, the balance between them,
+// and its rise above the higher of the two.
 type Peak struct {
 	Hz        float64 `json:"hz"`
 	HeightDB  float64 `json:"height_db"`
+	RiseDB    float64 `json:"rise_db"` // G(f_p) − max(M_lo, M_hi): the rise above the higher side
 	BalanceDB float64 `json:"balance_db"`
 }
 
@@ -149,7 +150,8 @@ func (m *Meter) Scoop(r Response) (s Scoop, found bool) {
 // and M_hi are the lowest gains on [band low, f_p] and [f_p, band high]
 // (refined where interior); the maximum counts when G(f_p) is at least
 // MinProminence above max(M_lo, M_hi); height_db = G(f_p) − (M_lo + M_hi)/2
-// and balance_db = M_hi − M_lo. The peak reported has the largest height.
+// and balance_db = M_hi − M_lo, rise_db = G(f_p) − max(M_lo, M_hi). The
+// peak reported has the largest height.
 func (m *Meter) Peak(r Response) (p Peak, found bool) {
 	g := m.fill(r, m.grid, m.g)
 	best := Peak{HeightDB: math.Inf(-1)}
@@ -161,7 +163,7 @@ func (m *Meter) Peak(r Response) (p Peak, found bool) {
 			return
 		}
 		if h := gp - (lo+hi)/2; h > best.HeightDB {
-			best = Peak{Hz: fp, HeightDB: h, BalanceDB: hi - lo}
+			best = Peak{Hz: fp, HeightDB: h, BalanceDB: hi - lo, RiseDB: gp - math.Max(lo, hi)}
 		}
 		found = true
 	})

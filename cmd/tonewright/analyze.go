@@ -190,7 +190,7 @@ func writeAnalysis(w io.Writer, d *networks.Design, an *networks.Analysis) {
 	}
 	varied := d.Varied(ss)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
-	head := append(append([]string(nil), varied...), "gain at 1 kHz", "scoop at", "depth", "balance", "peak at", "height", "corner", "low corner")
+	head := append(append([]string(nil), varied...), "gain at 1 kHz", "scoop at", "depth", "notch", "balance", "peak at", "rise", "corner", "low corner")
 	fmt.Fprintln(tw, strings.Join(head, "\t")+"\t")
 	opt := func(v *float64) string {
 		if v == nil {
@@ -205,21 +205,22 @@ func writeAnalysis(w io.Writer, d *networks.Design, an *networks.Analysis) {
 		}
 		row = append(row, db(p.Gain1kDB))
 		if p.Scoop == nil {
-			row = append(row, "no scoop", "", "")
+			row = append(row, "no scoop", "", "", "")
 		} else {
-			row = append(row, hz(p.Scoop.Hz), db(p.Scoop.DepthDB), db(p.Scoop.BalanceDB))
+			row = append(row, hz(p.Scoop.Hz), db(p.Scoop.DepthDB), db(p.Scoop.NotchDB), db(p.Scoop.BalanceDB))
 		}
 		if p.Peak == nil {
 			row = append(row, "no peak", "")
 		} else {
-			row = append(row, hz(p.Peak.Hz), db(p.Peak.HeightDB))
+			row = append(row, hz(p.Peak.Hz), db(p.Peak.RiseDB))
 		}
 		row = append(row, opt(p.CornerHz), opt(p.LowCornerHz))
 		fmt.Fprintln(tw, strings.Join(row, "\t")+"\t")
 	}
 	tw.Flush()
-	fmt.Fprintln(w, "\ndepth: the scoop's level minus the mean of its two shoulders (negative: a dip);")
-	fmt.Fprintln(w, "balance: the upper shoulder minus the lower (positive: brighter, negative: darker).")
+	fmt.Fprintln(w, "\ndepth: the scoop's level minus the mean of its two shoulders (negative: a dip); notch: minus the lower shoulder;")
+	fmt.Fprintln(w, "balance: the upper shoulder minus the lower (positive: brighter, negative: darker);")
+	fmt.Fprintln(w, "rise: the peak's level above the higher of the lowest levels on either side (the JSON adds its height above their mean).")
 	fmt.Fprintln(w)
 	at := "knobs as designed"
 	if an.Blend {
