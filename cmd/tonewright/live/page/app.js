@@ -409,7 +409,7 @@
     ['scoop-depth', 'scoop depth', (f) => f.scoop && f.scoop.depth_db, dB, true],
     ['scoop-balance', 'scoop balance', (f) => f.scoop && f.scoop.balance_db, dB, true],
     ['peak-hz', 'peak at', (f) => f.peak && f.peak.hz, (v) => eng(v, 'Hz'), false],
-    ['peak-height', 'peak height', (f) => f.peak && f.peak.height_db, dB, true],
+    ['peak-rise', 'peak rise', (f) => f.peak && f.peak.rise_db, dB, true],
     ['corner', 'output corner (−3 dB)', (f) => f.corner_hz, (v) => eng(v, 'Hz'), false],
     ['low-corner', 'low corner (−3 dB)', (f) => f.low_corner_hz, (v) => eng(v, 'Hz'), false],
     ['zin', 'input impedance', (f) => f.input_impedance_ohm, (v) => eng(v, 'Ω'), false],
