@@ -358,3 +358,30 @@ func TestDesignCompileEqualsNodal(t *testing.T) {
 	}
 	t.Logf("%d netlists, %d by the ZPK", tested, fast)
 }
+
+// A resistance below 1 Ω (a milli for a mega) and a netlist node that one
+// part alone touches (a mistyped node) are warned about, not refused.
+func TestDesignWarnings(t *testing.T) {
+	data, err := os.ReadFile("../testdata/examples/stack-netlist.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := ParseDesign(data, "stack.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if w := d.Warnings(); len(w) != 0 {
+		t.Errorf("warnings on a sound design: %q", w)
+	}
+	bad := strings.Replace(strings.Replace(string(data), "Cb:     {c: 22n, from: b, to: d}", "Cb:     {c: 22n, from: b, to: zz}", 1), "r: 1M, c: 0", "r: 1m, c: 0", 1)
+	d, err = ParseDesign([]byte(bad), "typo.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	w := strings.Join(d.Warnings(), "\n")
+	for _, want := range []string{"load.r is 1 mΩ", "node zz joins nothing else"} {
+		if !strings.Contains(w, want) {
+			t.Errorf("warnings %q lack %q", w, want)
+		}
+	}
+}

@@ -3,6 +3,7 @@ package main
 import (
 	"errors"
 	"fmt"
+	"io"
 	"os"
 	"path/filepath"
 	"strings"
@@ -10,12 +11,20 @@ import (
 	"tonewright/networks"
 )
 
+// warnings is where commands print warnings: run sets it to its standard
+// error.
+var warnings io.Writer = os.Stderr
+
 // loadDesign reads a design file; every failure is bad input. A design
-// without a name is named after its file.
+// without a name is named after its file. What is allowed but most likely
+// a slip (networks.Design.Warnings) is printed as a warning.
 func loadDesign(path string) (*networks.Design, error) {
 	d, err := networks.LoadDesign(path)
 	if err != nil {
 		return nil, badInput(err)
+	}
+	for _, w := range d.Warnings() {
+		fmt.Fprintf(warnings, "warning: %s: %s\n", path, w)
 	}
 	if d.Name == "" {
 		d.Name = strings.TrimSuffix(filepath.Base(path), filepath.Ext(path))

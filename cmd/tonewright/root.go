@@ -145,6 +145,7 @@ func (o *outputWriter) Write(p []byte) (int, error) {
 func run(args []string, out, errOut io.Writer) int {
 	ow := &outputWriter{w: out}
 	a := &app{out: ow, err: errOut}
+	warnings = errOut
 	if f, ok := errOut.(*os.File); ok {
 		a.tty = term.IsTerminal(int(f.Fd()))
 	}
