@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"regexp"
 	"sort"
 	"strconv"
 	"strings"
@@ -149,7 +150,11 @@ func (d *Decoder) Map(n *yaml.Node, path string, keys ...Key) error {
 		if key == nil {
 			sorted := append([]string(nil), names...)
 			sort.Strings(sorted)
-			return d.Errorf(kn, p, "unknown key %q: accepted keys here are %s", name, strings.Join(sorted, ", "))
+			hint := ""
+			if decimalTail.MatchString(name) {
+				hint = " (a decimal comma? In a {…} mapping a comma ends the value: write 1.2k or 1k2)"
+			}
+			return d.Errorf(kn, p, "unknown key %q: accepted keys here are %s%s", name, strings.Join(sorted, ", "), hint)
 		}
 		d.mark(p, vn)
 		if err := key.Decode(vn, p); err != nil {
@@ -158,6 +163,10 @@ func (d *Decoder) Map(n *yaml.Node, path string, keys ...Key) error {
 	}
 	return nil
 }
+
+// decimalTail is what is left of a value such as 1,2k after a flow
+// mapping's comma: digits and perhaps a prefix or unit.
+var decimalTail = regexp.MustCompile(`^[0-9]+[a-zA-Zµ]*$`)
 
 func describe(n *yaml.Node) string {
 	switch n.Kind {
