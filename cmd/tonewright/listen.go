@@ -5,6 +5,7 @@ import (
 	"io"
 	"math"
 	"os"
+	"path/filepath"
 	"sort"
 	"strconv"
 	"strings"
@@ -171,6 +172,9 @@ func runListen(a *app, cmd *cobra.Command, o listenFlags, args []string) error {
 	if o.out == "" {
 		return usageErrorf("listen needs an output file: -o OUT.wav")
 	}
+	if ext := strings.ToLower(filepath.Ext(o.out)); ext != ".wav" && o.out != os.DevNull {
+		return usageErrorf("-o %s: listen writes WAV files; name the output .wav", o.out)
+	}
 	makeup := audio.Makeup{Auto: true}
 	if o.makeup != "auto" {
 		v, err := strconv.ParseFloat(strings.TrimSpace(strings.TrimSuffix(strings.TrimSpace(o.makeup), "dB")), 64)
@@ -227,6 +231,9 @@ func runListen(a *app, cmd *cobra.Command, o listenFlags, args []string) error {
 			return usageErrorf("--rate %d: use %d to %d Hz", o.rate, audio.MinRate, audio.MaxRate)
 		}
 		secs := o.seconds
+		if turnKnob != "" && cmd.Flags().Changed("seconds") {
+			return usageErrorf("--turn and --seconds: a turn's length is given with it, as --turn %s=SECONDS", turnKnob)
+		}
 		if turnKnob != "" {
 			if turnSeconds == 0 {
 				turnSeconds = listenTurn

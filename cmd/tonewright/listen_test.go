@@ -166,6 +166,8 @@ func TestListenRefuses(t *testing.T) {
 		{[]string{"--signal", "hum"}, "unknown signal"},
 		{[]string{"--makeup", "loud"}, "--makeup"},
 		{[]string{"--rate", "8000"}, "--rate"},
+		{[]string{"--turn", "blend=3", "--seconds", "2"}, "a turn's length is given with it"},
+		{[]string{"-o", filepath.Join(dir, "out.mp3")}, "name the output .wav"},
 	} {
 		code, _, errOut := tw(t, append([]string{"listen", demoFile, "-o", out}, c.args...)...)
 		if code != 2 || !strings.Contains(errOut, c.want) {
