@@ -141,3 +141,19 @@ func TestAnalyzeAtValidatorLimits(t *testing.T) {
 		}
 	}
 }
+
+// snap on a series member gives its neighbours, IEC 60063's E24 values
+// 4.3k and 5.1k around 4.7k; a value written with a unit keeps it.
+func TestSnapMemberNeighbours(t *testing.T) {
+	code, out, errs := tw(t, "snap", "4.7k", "--json")
+	if code != 0 {
+		t.Fatal(errs)
+	}
+	var v struct{ Below, Above float64 }
+	if err := json.Unmarshal([]byte(out), &v); err != nil || v.Below != 4300 || v.Above != 5100 {
+		t.Errorf("below %v, above %v (%v)", v.Below, v.Above, err)
+	}
+	if _, out, _ := tw(t, "snap", "220uF"); !strings.Contains(out, "200 µF") {
+		t.Errorf("unit lost:\n%s", out)
+	}
+}
