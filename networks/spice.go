@@ -35,6 +35,11 @@ func (n *Network) WriteSPICE(w io.Writer, title string, band Band, perDecade int
 		fmt.Fprintf(&b, "V1 %s 0 DC 0 AC 1\n", node(drive))
 	}
 	for _, e := range n.Flatten() {
+		if node(e.A) == node(e.B) {
+			// Both ends on one node (the shorted segment of a pot wired
+			// as a variable resistor): it carries no current.
+			continue
+		}
 		name := e.Name
 		letter := map[Kind]string{Resistor: "R", Capacitor: "C", Inductor: "L"}[e.Kind]
 		if !strings.HasPrefix(strings.ToUpper(name), letter) {
