@@ -35,13 +35,17 @@ func newRoot(a *app) *cobra.Command {
 		Use:   "tonewright",
 		Short: "Analyse and design the passive tone-and-level section of an effect",
 		Long: `tonewright analyses the passive tone-and-level section of a guitar or audio
-effect exactly (modified nodal analysis): a blend tone network, RC low-pass
+effect exactly (modified nodal analysis): a tone network (the blend network,
+a built-in one such as a treble cut, a bass/treble pair, the three-knob
+stack or a tilt control, or your own written part by part), RC low-pass
 filter sections and a level pot, driven by a stage with an output impedance
-and loaded by what follows. It finds parts for a wanted voice in E-series
-values or from your own stock, and shows how source, load and part
-tolerances move the curve.`,
+and loaded by what follows, every pot a knob. It finds parts for a wanted
+voice in E-series values or from your own stock, shows how source, load and
+part tolerances move the curve, plays it (listen) and lets you turn its
+knobs on a local page (live).`,
 		Example: `  tonewright demo
-  tonewright analyze board.yaml
+  tonewright new three-band-stack -o stack.yaml
+  tonewright analyze stack.yaml --knob treble=0,0.5,1
   tonewright plot board.yaml -o board.png`,
 		Version:       version,
 		SilenceUsage:  true,
