@@ -32,7 +32,7 @@ func (b Band) Check() error {
 		return fmt.Errorf("band %s–%s: from must be below to", eseries.WithUnit(b.From, 3, "Hz"), eseries.WithUnit(b.To, 3, "Hz"))
 	}
 	if b.From < MinHz || b.To > MaxHz || b.To/b.From > MaxSpan {
-		return fmt.Errorf("band %s–%s: keep it within %s–%s and at most %g decades wide", eseries.WithUnit(b.From, 3, "Hz"), eseries.WithUnit(b.To, 3, "Hz"), eseries.WithUnit(MinHz, 3, "Hz"), eseries.WithUnit(MaxHz, 3, "Hz"), math.Log10(MaxSpan))
+		return fmt.Errorf("band %s–%s spans %.3g decades: keep it within %s–%s and at most %g decades wide", eseries.WithUnit(b.From, 3, "Hz"), eseries.WithUnit(b.To, 3, "Hz"), math.Log10(b.To/b.From), eseries.WithUnit(MinHz, 3, "Hz"), eseries.WithUnit(MaxHz, 3, "Hz"), math.Log10(MaxSpan))
 	}
 	return nil
 }

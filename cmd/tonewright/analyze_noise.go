@@ -28,9 +28,9 @@ func writeNoise(w io.Writer, d *networks.Design, an *networks.Analysis, varied [
 		}
 		n := p.Noise
 		if n == nil {
-			row = append(row, "–", "–", "–", "–", "–")
+			row = append(row, "—", "—", "—", "—", "—")
 		} else {
-			dbv := "–"
+			dbv := "—"
 			if n.ReferredAV > 0 {
 				dbv = fmt.Sprintf("%.1f", 20*math.Log10(n.ReferredAV))
 			}

@@ -108,7 +108,7 @@ func writeKnobTurn(w io.Writer, d *networks.Design, kt *networks.KnobTurn) {
 		for _, g := range st.GainDB {
 			row = append(row, db(g))
 		}
-		row = append(row, optHz(st.ScoopHz, "–"), optHz(st.CornerHz, "–"))
+		row = append(row, optHz(st.ScoopHz, "—"), optHz(st.CornerHz, "—"))
 		fmt.Fprintln(tw, strings.Join(row, "\t")+"\t")
 	}
 	tw.Flush()
@@ -116,7 +116,7 @@ func writeKnobTurn(w io.Writer, d *networks.Design, kt *networks.KnobTurn) {
 	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintln(tw, "frequency\trange over the turn\tbusiest tenth\tits share of the change\t")
 	for _, sp := range kt.Spreads {
-		where, share := "–", "–"
+		where, share := "—", "—"
 		if sp.BusiestShare > 0 {
 			where = fmt.Sprintf("%s–%s", posLabel(sp.BusiestFrom), posLabel(sp.BusiestTo))
 			share = fmt.Sprintf("%.0f %%", 100*sp.BusiestShare)
