@@ -91,10 +91,10 @@ func (f *panels) render(path string, inputs ...string) error {
 			p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
 		}
 		if pn.FreqY {
-			p.Y.Tick.Marker = freqTicks{}
+			p.Y.Tick.Marker = freqTicks{Gap: verticalGap}
 		}
 		if pn.OhmY {
-			p.Y.Tick.Marker = ohmTicks{}
+			p.Y.Tick.Marker = ohmTicks{Gap: verticalGap}
 		}
 		if pn.DBY {
 			p.Y.Tick.Marker = dbTicks{}
@@ -180,34 +180,4 @@ func (f *panels) render(path string, inputs ...string) error {
 		data = svgFontFallback(data)
 	}
 	return writeFile(path, data, inputs...)
-}
-
-// tenths labels a 0..1 axis at every tenth.
-type tenths struct{}
-
-func (tenths) Ticks(min, max float64) []plot.Tick {
-	var ts []plot.Tick
-	for i := 0; i <= 10; i++ {
-		x := float64(i) / 10
-		if x >= min-1e-9 && x <= max+1e-9 {
-			ts = append(ts, plot.Tick{Value: x, Label: fmt.Sprintf("%g", x)})
-		}
-	}
-	return ts
-}
-
-// ohmTicks labels a log axis of resistances at 1-2-5 steps: 10 kΩ, 20 kΩ, …
-type ohmTicks struct{}
-
-func (ohmTicks) Ticks(min, max float64) []plot.Tick {
-	var ts []plot.Tick
-	for e := math.Floor(math.Log10(min)); e <= math.Ceil(math.Log10(max)); e++ {
-		for _, m := range []float64{1, 2, 5} {
-			v := m * math.Pow(10, e)
-			if v >= min && v <= max {
-				ts = append(ts, plot.Tick{Value: v, Label: ohm(v)})
-			}
-		}
-	}
-	return ts
 }

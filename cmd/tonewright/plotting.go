@@ -214,55 +214,6 @@ func (t lineAndGlyph) Thumbnail(c *draw.Canvas) {
 	t.s.Thumbnail(c)
 }
 
-// freqTicks labels a log frequency axis so that the labels neither run
-// together nor leave the band unlabelled: at 1-2-5 steps over up to four
-// decades, at the decades only over more, and at every step (with the
-// band's edges) over less than about a decade.
-type freqTicks struct{}
-
-func (freqTicks) Ticks(min, max float64) []plot.Tick {
-	decades := math.Log10(max / min)
-	labelled := func(m int) bool {
-		switch {
-		case decades > 4:
-			return m == 1
-		case decades > 1.3:
-			return m == 1 || m == 2 || m == 5
-		}
-		return true
-	}
-	var ts []plot.Tick
-	for d := math.Floor(math.Log10(min)); d <= math.Ceil(math.Log10(max)); d++ {
-		base := math.Pow(10, d)
-		for m := 1; m < 10; m++ {
-			v := float64(m) * base
-			if v < min*(1-1e-9) || v > max*(1+1e-9) {
-				continue
-			}
-			t := plot.Tick{Value: v}
-			if labelled(m) {
-				t.Label = freqLabel(v)
-			}
-			ts = append(ts, t)
-		}
-	}
-	if decades <= 1.3 {
-		// Label the band's edges unless a labelled tick is close by.
-		for _, e := range []float64{min, max} {
-			near := false
-			for _, t := range ts {
-				if t.Label != "" && math.Abs(math.Log10(t.Value/e)) < decades/12 {
-					near = true
-				}
-			}
-			if !near {
-				ts = append(ts, plot.Tick{Value: e, Label: freqLabel(e)})
-			}
-		}
-	}
-	return ts
-}
-
 // freqLabel writes a frequency tick label: 20, 500, 1k, 20k, 0.1.
 func freqLabel(v float64) string {
 	if v < 1 {
@@ -819,38 +770,4 @@ func unwrap(deg []float64) {
 		}
 		deg[i] += off
 	}
-}
-
-// degTicks labels a phase axis every 45°.
-type degTicks struct{}
-
-func (degTicks) Ticks(min, max float64) []plot.Tick {
-	step := 45.0
-	if max-min > 450 {
-		step = 90
-	}
-	var ts []plot.Tick
-	for v := math.Ceil(min/step) * step; v <= max; v += step {
-		ts = append(ts, plot.Tick{Value: v, Label: fmt.Sprintf("%g", v)})
-	}
-	return ts
-}
-
-// dbTicks labels a level axis at a round step that gives four to ten
-// labels.
-type dbTicks struct{}
-
-func (dbTicks) Ticks(min, max float64) []plot.Tick {
-	step := 1.0
-	for _, s := range []float64{1, 2, 5, 10, 20, 50, 100} {
-		step = s
-		if (max-min)/s <= 10 {
-			break
-		}
-	}
-	var ts []plot.Tick
-	for v := math.Ceil(min/step) * step; v <= max+1e-9; v += step {
-		ts = append(ts, plot.Tick{Value: v, Label: fmt.Sprintf("%g", v)})
-	}
-	return ts
 }
