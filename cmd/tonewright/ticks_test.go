@@ -72,3 +72,17 @@ func TestOhmTicks(t *testing.T) {
 		t.Errorf("100 Ω–1 MΩ: labels %v, want the 1-2-5 steps", ls)
 	}
 }
+
+// A panel line breaks where it leaps by more than its Jump factor in one
+// step, and where a value is missing.
+func TestSeriesRunsBreakAtJumps(t *testing.T) {
+	x := []float64{0, 0.025, 0.05, 0.075, 0.1, 0.125, 0.15}
+	y := []float64{350, 340, 330, 8000, 8100, math.NaN(), 8200}
+	got := series{X: x, Y: y, Jump: 1.5}.runs()
+	if len(got) != 3 || len(got[0]) != 3 || len(got[1]) != 2 || len(got[2]) != 1 {
+		t.Errorf("runs %v, want three: up to the jump, to the gap, after it", got)
+	}
+	if n := len(series{X: x, Y: y}.runs()); n != 2 {
+		t.Errorf("without Jump: %d runs, want 2 (the gap only)", n)
+	}
+}
