@@ -590,7 +590,7 @@ func (b *bode) render(path string, inputs ...string) error {
 		cb.Y.Tick.Label.Font.Size = vg.Points(9.5)
 		cb.Y.Tick.Marker = plot.ConstantTicks(scale.Ticks)
 		cb.Y.Min, cb.Y.Max = scale.Min, scale.Max
-		cb.Add(&plotter.ColorBar{ColorMap: cmap, Vertical: true})
+		cb.Add(colorBar{cmap: cmap, min: scale.Min, max: scale.Max})
 		area := draw.Canvas{Canvas: dc.Canvas, Rectangle: vg.Rectangle{
 			Min: vg.Point{X: x0, Y: magArea.Min.Y + vg.Points(40)},
 			Max: vg.Point{X: x0 + vg.Points(95), Y: bottom - vg.Points(14)},

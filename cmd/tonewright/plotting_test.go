@@ -167,3 +167,27 @@ func TestRevoicePlotShowsOriginal(t *testing.T) {
 		t.Errorf("a fresh synthesis plot shows an original design")
 	}
 }
+
+// The colour bar is drawn as vector shapes, not an embedded image, so that
+// every SVG renderer shows its colours.
+func TestColorBarIsVector(t *testing.T) {
+	d, err := loadDesign(demoFile)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := filepath.Join(t.TempDir(), "p.svg")
+	b := &bode{Title: "t", Range: d.Band, Curves: designCurves(d, atSwept(d, positions(11)...), false)}
+	if !b.usesColorMap() {
+		t.Fatal("11 positions: no colour bar")
+	}
+	if err := b.render(p); err != nil {
+		t.Fatal(err)
+	}
+	svg, err := os.ReadFile(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if strings.Contains(string(svg), "<image") {
+		t.Errorf("the SVG's colour bar is an embedded image")
+	}
+}
