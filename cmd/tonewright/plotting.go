@@ -7,6 +7,7 @@ import (
 	"math"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -35,11 +36,14 @@ type curve struct {
 	Color color.Color // nil: the palette's, or the colour map's for a family member
 
 	// Family curves are members of an ordered family (knob positions,
-	// swept values): Order places the curve on the family's colour scale.
-	// Style picks a dash pattern and marker for a second dimension (the
-	// loads of a sweep of sources and loads); StyleLabel names it.
+	// swept values): Order places the curve on the family's colour scale,
+	// OrderKnob names the knob it is a position of (knob families). Style
+	// picks a dash pattern and marker for a second dimension (the loads of
+	// a sweep of sources and loads, the other knobs of a family of several
+	// knobs); StyleLabel names it.
 	Family     bool
 	Order      float64
+	OrderKnob  string
 	Style      int
 	StyleLabel string
 }
@@ -268,13 +272,25 @@ func checkPlotFlag(flag, path string, inputs ...string) error {
 	return nil
 }
 
-// knobScale is the colour scale of a family of blend knob positions.
+// knobScale is the colour scale of a family of knob positions: the bar
+// names the knob (the blend knob with what its ends do) and runs over its
+// positions.
 func knobScale(cs []curve) *colorScale {
-	s := &colorScale{Label: "blend knob (0 low-pass end, 1 high-pass end)", Min: math.Inf(1), Max: math.Inf(-1)}
+	s := &colorScale{Label: "knob position", Min: math.Inf(1), Max: math.Inf(-1)}
 	var orders []float64
 	for _, c := range cs {
-		if c.Family {
-			s.Min, s.Max = math.Min(s.Min, c.Order), math.Max(s.Max, c.Order)
+		if !c.Family {
+			continue
+		}
+		switch c.OrderKnob {
+		case "":
+		case networks.BlendKnob:
+			s.Label = "blend knob (0 low-pass end, 1 high-pass end)"
+		default:
+			s.Label = c.OrderKnob + " knob position"
+		}
+		s.Min, s.Max = math.Min(s.Min, c.Order), math.Max(s.Max, c.Order)
+		if !slices.Contains(orders, c.Order) {
 			orders = append(orders, c.Order)
 		}
 	}
@@ -333,13 +349,32 @@ func (b *bode) looks() ([]curveLook, *colorScale, *familyMap) {
 		scale = knobScale(b.Curves)
 	}
 	cmap := newFamilyMap(scale)
+	// A family of two or more dimensions (styled members) takes its
+	// palette colours by Order, as the colour map does: one colour per
+	// value of the colour dimension.
+	var orders []float64
+	styled := false
+	for _, c := range b.Curves {
+		if c.Family && c.Color == nil {
+			styled = styled || c.StyleLabel != ""
+			if !slices.Contains(orders, c.Order) {
+				orders = append(orders, c.Order)
+			}
+		}
+	}
+	slices.Sort(orders)
+	byOrder := styled && !useMap
 	palette := 0
 	for _, c := range b.Curves {
-		if c.Color == nil && !(useMap && c.Family) {
+		if c.Color == nil && !(useMap && c.Family) && !(byOrder && c.Family) {
 			palette++
 		}
 	}
 	next := 0
+	if byOrder {
+		palette += len(orders)
+		next = len(orders)
+	}
 	var out []curveLook
 	for _, c := range b.Curves {
 		var col color.Color = c.Color
@@ -347,6 +382,8 @@ func (b *bode) looks() ([]curveLook, *colorScale, *familyMap) {
 		case col != nil:
 		case useMap && c.Family:
 			col = cmap.color(c.Order)
+		case byOrder && c.Family:
+			col = colorFor(slices.Index(orders, c.Order), len(orders))
 		default:
 			col = colorFor(next, palette)
 			next++
@@ -719,13 +756,25 @@ func designCurves(d *networks.Design, ss []networks.Setting, withPhase bool) []c
 	m := networks.NewMeter(d.Band)
 	freqs := networks.LogGrid(d.Band.From, d.Band.To, 120)
 	varied := d.Varied(ss)
+	colour, styles := familyKnobs(d, ss, varied)
 	var cs []curve
 	for i, s := range ss {
 		k, err := d.Compile(s)
 		if err != nil {
 			continue // a valid design always compiles; nothing to draw otherwise
 		}
-		c := curve{Label: settingLabel(s, varied), Hz: freqs, DB: make([]float64, len(freqs)), Family: true, Order: familyOrder(s, varied, i)}
+		c := curve{Label: settingLabel(s, varied), Hz: freqs, DB: make([]float64, len(freqs)), Family: true, Order: float64(i)}
+		if colour != "" {
+			c.Order, c.OrderKnob = s[colour], colour
+		}
+		stride := 1
+		var styleLabel []string
+		for _, st := range styles {
+			c.Style += stride * slices.Index(st.positions, s[st.name])
+			stride *= len(st.positions)
+			styleLabel = append(styleLabel, st.name+" "+posLabel(s[st.name]))
+		}
+		c.StyleLabel = strings.Join(styleLabel, ", ")
 		if withPhase {
 			c.Deg = make([]float64, len(freqs))
 		}
@@ -744,6 +793,44 @@ func designCurves(d *networks.Design, ss []networks.Setting, withPhase bool) []c
 		cs = append(cs, c)
 	}
 	return cs
+}
+
+// knobPositions is a knob of a family of settings with its positions.
+type knobPositions struct {
+	name      string
+	positions []float64
+}
+
+// familyKnobs chooses how a family of settings is drawn: coloured by the
+// knob with the most positions (on a tie the swept knob, else the first),
+// styled (dash and marker) by the other knobs that take more than one
+// position. colour is "" when no knob moves.
+func familyKnobs(d *networks.Design, ss []networks.Setting, varied []string) (colour string, styles []knobPositions) {
+	var ks []knobPositions
+	for _, n := range varied {
+		k := knobPositions{name: n}
+		for _, s := range ss {
+			if !slices.Contains(k.positions, s[n]) {
+				k.positions = append(k.positions, s[n])
+			}
+		}
+		if len(k.positions) > 1 {
+			slices.Sort(k.positions)
+			ks = append(ks, k)
+		}
+	}
+	best := -1
+	for i, k := range ks {
+		if best < 0 || len(k.positions) > len(ks[best].positions) ||
+			len(k.positions) == len(ks[best].positions) && k.name == d.SweptKnob() {
+			best = i
+		}
+	}
+	if best < 0 {
+		return "", nil
+	}
+	colour = ks[best].name
+	return colour, slices.Delete(ks, best, best+1)
 }
 
 // atSwept returns the design's settings with its swept knob (the blend

@@ -191,3 +191,62 @@ func TestColorBarIsVector(t *testing.T) {
 		t.Errorf("the SVG's colour bar is an embedded image")
 	}
 }
+
+// builtin is the default design of a built-in topology.
+func builtin(t *testing.T, name string) *networks.Design {
+	t.Helper()
+	for _, tp := range networks.Topologies() {
+		if tp.Name == name {
+			return tp.DefaultDesign()
+		}
+	}
+	t.Fatalf("no built-in %q", name)
+	return nil
+}
+
+// A family over two or three knobs is coloured by one knob and styled by
+// the others: no two curves look alike, the colour bar names the knob it
+// maps and runs over its positions, and only the blend knob's bar speaks
+// of low-pass and high-pass ends.
+func TestPlotKnobFamilies(t *testing.T) {
+	p3 := []float64{0, 0.5, 1}
+	for _, tc := range []struct {
+		design string
+		lists  []networks.KnobList
+		colour string // the knob the colours follow
+		bar    string // the colour bar's label ("" with a legend)
+	}{
+		{"bass-treble", []networks.KnobList{{Name: "bass", Positions: p3}, {Name: "treble", Positions: p3}}, "", "knob position"},
+		{"bass-treble", []networks.KnobList{{Name: "bass", Positions: []float64{0, 1}}, {Name: "treble", Positions: p3}}, "treble", ""},
+		{"bass-treble", []networks.KnobList{{Name: "bass", Positions: positions(11)}}, "bass", "bass knob position"},
+		{"three-band-stack", []networks.KnobList{{Name: "treble", Positions: p3}, {Name: "bass", Positions: p3}, {Name: "mid", Positions: p3}}, "", "knob position"},
+		{"blend", []networks.KnobList{{Name: networks.BlendKnob, Positions: positions(11)}}, "blend", "blend knob (0 low-pass end, 1 high-pass end)"},
+	} {
+		d := builtin(t, tc.design)
+		ss, err := d.Settings(tc.lists)
+		if err != nil {
+			t.Fatal(err)
+		}
+		name := fmt.Sprintf("%s %v", tc.design, tc.lists)
+		b := &bode{Range: d.Band, Curves: designCurves(d, ss, false)}
+		distinctLooks(t, name, b)
+		_, scale, _ := b.looks()
+		if tc.colour != "" {
+			for _, c := range b.Curves {
+				if c.OrderKnob != tc.colour {
+					t.Errorf("%s: coloured by %q, want %q", name, c.OrderKnob, tc.colour)
+					break
+				}
+			}
+		}
+		if !b.usesColorMap() {
+			continue
+		}
+		if !strings.HasSuffix(scale.Label, tc.bar) || (tc.design != "blend" && strings.Contains(scale.Label, "low-pass")) {
+			t.Errorf("%s: colour bar %q, want one ending %q", name, scale.Label, tc.bar)
+		}
+		if scale.Min != 0 || scale.Max != 1 {
+			t.Errorf("%s: colour bar runs %g–%g, want the knob's positions 0–1", name, scale.Min, scale.Max)
+		}
+	}
+}
