@@ -12,11 +12,9 @@ import (
 	"strings"
 
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/palette"
 	"gonum.org/v1/plot/palette/moreland"
 	"gonum.org/v1/plot/plotter"
-	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
@@ -419,52 +417,10 @@ func (b *bode) render(path string, inputs ...string) error {
 	}
 	useMap := b.usesColorMap()
 	// Label every ring when there are few; else an even selection, the
-	// first and last among them. A label that would overlap one already
-	// placed is left out; the caption says when any is.
+	// first and last among them. A label that finds no free place beside
+	// its ring is left out; the title says when any is.
 	ringStep := max(1, (marked+maxRingLabels-1)/maxRingLabels)
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for _, c := range b.Curves {
-		for _, v := range c.DB {
-			if !math.IsNaN(v) && !math.IsInf(v, 0) {
-				lo, hi = math.Min(lo, v), math.Max(hi, v)
-			}
-		}
-	}
-	decades := math.Log10(b.Range.To / b.Range.From)
-	var placed []point
-	// place finds where m's label goes: below the ring, or stacked one or
-	// two lines further down; a place is taken when it would cover
-	// another label or another ring. ok is false when all are taken.
-	// Sizes are in axis units: a label is about 7 % of the axes wide and
-	// 3.5 % high.
-	lineH := 0.035 * (hi - lo)
-	halfW := 0.035 * decades
-	var ringsAt []point
-	for _, c := range b.Curves {
-		ringsAt = append(ringsAt, c.Marks...)
-	}
-	place := func(m point) (at point, ok bool) {
-		for k := 0; k < 3; k++ {
-			at = point{m.Hz, m.DB - float64(k)*lineH}
-			top, bottom := at.DB-0.15*lineH, at.DB-1.45*lineH
-			clear := true
-			for _, p := range placed {
-				if math.Abs(math.Log10(at.Hz/p.Hz)) < 2*halfW && math.Abs(at.DB-p.DB) < 1.1*lineH {
-					clear = false
-				}
-			}
-			for _, r := range ringsAt {
-				if r != m && math.Abs(math.Log10(r.Hz/at.Hz)) < halfW+0.01*decades && r.DB < top && r.DB > bottom {
-					clear = false
-				}
-			}
-			if clear {
-				placed = append(placed, at)
-				return at, true
-			}
-		}
-		return at, false
-	}
+	rl := newRingLabels()
 	skipped := ringStep > 1
 	if caption != "" {
 		title += "\n" + caption
@@ -500,16 +456,16 @@ func (b *bode) render(path string, inputs ...string) error {
 	looks, scale, cmap := b.looks()
 	styles := map[int]bool{}
 	var styleEntries []legendEntry
-	var rings plotter.XYLabels
-	var ringStyles []text.Style
 	ring := 0
 	for i, c := range b.Curves {
 		look := looks[i]
 		col := look.color
-		thumb, err := addCurve(mag, xys(c.Hz, c.DB), look, vg.Points(2), i*7)
+		pts := xys(c.Hz, c.DB)
+		thumb, err := addCurve(mag, pts, look, vg.Points(2), i*7)
 		if err != nil {
 			return err
 		}
+		rl.curves = append(rl.curves, pts)
 		if c.Label != "" && !(useMap && c.Family) {
 			legend = append(legend, legendEntry{c.Label, thumb})
 		}
@@ -532,18 +488,11 @@ func (b *bode) render(path string, inputs ...string) error {
 			label := ring%ringStep == 0 || ring == marked-1
 			ring++
 			for _, m := range c.Marks {
-				pts = append(pts, plotter.XY{X: m.Hz, Y: m.DB})
-				if !label {
-					continue
-				}
-				at, ok := place(m)
-				if !ok {
-					skipped = true
-				} else {
-					rings.XYs = append(rings.XYs, plotter.XY{X: at.Hz, Y: at.DB})
-					rings.Labels = append(rings.Labels, hz(m.Hz))
-					ringStyles = append(ringStyles, text.Style{Color: col, Font: font.From(plot.DefaultFont, vg.Points(9)),
-						XAlign: draw.XCenter, YAlign: draw.YTop, Handler: plot.DefaultTextHandler})
+				at := plotter.XY{X: m.Hz, Y: m.DB}
+				pts = append(pts, at)
+				rl.rings = append(rl.rings, at)
+				if label {
+					rl.labels = append(rl.labels, ringLabel{at, hz(m.Hz), col})
 				}
 			}
 			s, err := plotter.NewScatter(pts)
@@ -559,23 +508,17 @@ func (b *bode) render(path string, inputs ...string) error {
 			}
 		}
 	}
-	if skipped {
-		mag.Title.Text += "\nrings: the scoops, labelled where room allows"
-	}
-	if len(rings.XYs) > 0 {
-		lb, err := plotter.NewLabels(rings)
-		if err != nil {
-			return err
-		}
-		lb.TextStyle = ringStyles
-		lb.Offset = vg.Point{Y: -vg.Points(7)}
-		mag.Add(lb)
-	}
+	mag.Add(rl)
 	legend = append(legend, styleEntries...)
 	for _, t := range b.Targets {
 		e, err := addTarget(mag, t)
 		if err != nil {
 			return err
+		}
+		if math.IsNaN(t.DB) {
+			rl.curves = append(rl.curves, plotter.XYs{{X: t.Hz, Y: mag.Y.Min}, {X: t.Hz, Y: mag.Y.Max}})
+		} else {
+			rl.crosses = append(rl.crosses, plotter.XY{X: t.Hz, Y: t.DB})
 		}
 		if e.label != "" {
 			legend = append(legend, e)
@@ -602,16 +545,30 @@ func (b *bode) render(path string, inputs ...string) error {
 	}
 	side += vg.Points(16)
 	main := draw.Crop(dc, 0, -side, 0, 0)
-	var magArea draw.Canvas
-	if pha == nil {
-		mag.Draw(main)
-		magArea = main
-	} else {
-		tiles := draw.Tiles{Rows: 2, Cols: 1, PadTop: vg.Points(4), PadBottom: vg.Points(4), PadLeft: vg.Points(4), PadRight: vg.Points(10), PadY: vg.Points(10)}
-		cs := plot.Align([][]*plot.Plot{{mag}, {pha}}, tiles, main)
-		mag.Draw(cs[0][0])
-		pha.Draw(cs[1][0])
-		magArea = cs[0][0]
+	tiles := draw.Tiles{Rows: 2, Cols: 1, PadTop: vg.Points(4), PadBottom: vg.Points(4), PadLeft: vg.Points(4), PadRight: vg.Points(10), PadY: vg.Points(10)}
+	areas := func() (magC, phaC draw.Canvas) {
+		if b.Phase {
+			cs := plot.Align([][]*plot.Plot{{mag}, {pha}}, tiles, main)
+			return cs[0][0], cs[1][0]
+		}
+		return main, draw.Canvas{}
+	}
+	magArea, phaArea := areas()
+	// Room for a label under the lowest labelled ring: a scoop near the
+	// bottom of the curves lowers the axis a little.
+	if rl.makeRoom(mag, magArea) {
+		magArea, phaArea = areas()
+	}
+	// The title says when a ring went unlabelled: try the labels on the
+	// data area as it is, and if any is left out, add the line (which
+	// shrinks the area a little; the labels are placed again when drawn).
+	if _, left := rl.place(mag.DataCanvas(magArea), mag); left > 0 || skipped {
+		mag.Title.Text += "\nrings: the scoops, labelled where room allows"
+		magArea, phaArea = areas()
+	}
+	mag.Draw(magArea)
+	if pha != nil {
+		pha.Draw(phaArea)
 	}
 	// The side column: the legend at the top of the axes (below the
 	// title), the colour bar under it.
