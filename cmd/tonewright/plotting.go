@@ -156,7 +156,7 @@ func (m *familyMap) color(v float64) color.Color {
 // plain dash that no family style uses; family styles combine a pattern
 // with a marker, so that up to 24 second-dimension values differ.
 var (
-	refDash       = []vg.Length{vg.Points(9), vg.Points(4)}
+	refDash       = []vg.Length{vg.Points(7), vg.Points(5)}
 	styleDashes   = [][]vg.Length{nil, {vg.Points(1.5), vg.Points(2.5)}, {vg.Points(7), vg.Points(2.5), vg.Points(1.5), vg.Points(2.5)}, {vg.Points(7), vg.Points(2.5), vg.Points(1.5), vg.Points(2.5), vg.Points(1.5), vg.Points(2.5)}}
 	styleGlyphs   = []draw.GlyphDrawer{nil, draw.CircleGlyph{}, draw.SquareGlyph{}, draw.TriangleGlyph{}, draw.PlusGlyph{}, draw.CrossGlyph{}}
 	markerEvery   = 30 // grid points between markers (the grid has 120 a decade)
@@ -460,8 +460,15 @@ func (b *bode) render(path string, inputs ...string) error {
 	for i, c := range b.Curves {
 		look := looks[i]
 		col := look.color
+		// The reference (dashed) is drawn thinner, and after the family,
+		// so that a curve it lies on still shows around and between its
+		// dashes.
+		width, phaseWidth := vg.Points(2), vg.Points(1.6)
+		if c.Dash {
+			width, phaseWidth = vg.Points(1.2), vg.Points(1)
+		}
 		pts := xys(c.Hz, c.DB)
-		thumb, err := addCurve(mag, pts, look, vg.Points(2), i*7)
+		thumb, err := addCurve(mag, pts, look, width, i*7)
 		if err != nil {
 			return err
 		}
@@ -503,7 +510,7 @@ func (b *bode) render(path string, inputs ...string) error {
 			mag.Add(s)
 		}
 		if pha != nil && c.Deg != nil {
-			if _, err := addCurve(pha, xys(c.Hz, c.Deg), look, vg.Points(1.6), i*7); err != nil {
+			if _, err := addCurve(pha, xys(c.Hz, c.Deg), look, phaseWidth, i*7); err != nil {
 				return err
 			}
 		}

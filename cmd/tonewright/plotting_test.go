@@ -250,3 +250,29 @@ func TestPlotKnobFamilies(t *testing.T) {
 		}
 	}
 }
+
+// A swept row with the design's own source and load is the design's curve:
+// its legend entry says so, the design's dashed curve is drawn thinner on
+// top of it, and the row's ring stands for both.
+func TestSweepRowEqualToDesign(t *testing.T) {
+	d, err := loadDesign(demoFile)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := networks.SweepLoads(d, nil, nil, []float64{d.Load.C, 470e-12, 1e-9}, networks.Setting{networks.BlendKnob: 0.5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b := sweepPlot(d, res, false, false, true)
+	if got := b.Curves[0].Label; !strings.HasSuffix(got, " (= the design)") {
+		t.Errorf("the row at the design's load C is labelled %q, want it to say it is the design", got)
+	}
+	for _, c := range b.Curves[1 : len(b.Curves)-1] {
+		if strings.Contains(c.Label, "the design") {
+			t.Errorf("row %q is not the design", c.Label)
+		}
+	}
+	if own := b.Curves[len(b.Curves)-1]; !own.Dash || len(own.Marks) != 0 {
+		t.Errorf("the design's curve: dashed %v, %d rings; want dashed with its ring left to the row", own.Dash, len(own.Marks))
+	}
+}
