@@ -105,10 +105,10 @@ defines every figure.`,
 				writeImpedance(a.out, d, an)
 			}
 			if zPlot != "" {
-				fmt.Fprintf(a.out, "\nimpedance plot written to %s\n", zPlot)
+				fmt.Fprintf(a.out, "\nwrote %s\n", zPlot)
 			}
 			if csvPath != "" {
-				fmt.Fprintf(a.out, "\ncurves written to %s\n", csvPath)
+				fmt.Fprintf(a.out, "\nwrote %s\n", csvPath)
 			}
 			return nil
 		},

@@ -169,10 +169,12 @@ func knobPlot(d *networks.Design, kt *networks.KnobTurn) *panels {
 		gain.Series = append(gain.Series, series{Label: "at " + hz(f), X: x, Y: y})
 	}
 	// The scoop frequency, and the corner beside it (a knob with no scoop
-	// still moves its corner); each line breaks where there is none.
+	// still moves its corner); each line breaks where there is none, and
+	// where it leaps (the corner passing from one slope of the curve to
+	// another) by more than half as much again in one 1/40 of the turn.
 	fr := panel{XLabel: kt.Knob + " (rotation)", YLabel: "frequency (Hz)", LogY: true, FreqY: true, XMin: 0, XMax: 1, TenthsX: true,
 		YMin: d.Band.From, YMax: d.Band.To, LegendRight: true}
-	for _, s := range []series{{Label: "scoop", X: x, Y: scoop}, {Label: "corner (−3 dB)", X: x, Y: corner}} {
+	for _, s := range []series{{Label: "scoop", X: x, Y: scoop, Jump: 1.5}, {Label: "corner (−3 dB)", X: x, Y: corner, Jump: 1.5}} {
 		if len(segments(s.X, s.Y)) > 0 {
 			fr.Series = append(fr.Series, s)
 		}

@@ -126,12 +126,3 @@ func studyLabel(d *networks.Design, s networks.Setting) string {
 	}
 	return settingLabel(s, d.Varied([]networks.Setting{s}))
 }
-
-// familyOrder places a setting in its plot's family of curves: the position
-// of the one knob that varies, or the setting's index when several do.
-func familyOrder(s networks.Setting, varied []string, i int) float64 {
-	if len(varied) == 1 {
-		return s[varied[0]]
-	}
-	return float64(i)
-}

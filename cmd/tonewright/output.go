@@ -33,7 +33,7 @@ func (a *app) deliver(o studyOutput) error {
 	}
 	o.text(a.out)
 	if o.plotPath != "" {
-		fmt.Fprintf(a.out, "\nplot written to %s\n", o.plotPath)
+		fmt.Fprintf(a.out, "\nwrote %s\n", o.plotPath)
 	}
 	return nil
 }

@@ -39,10 +39,37 @@ type panel struct {
 	Series         []series
 }
 
-// series is one line of a panel; NaN values break it.
+// series is one line of a panel; NaN values break it, and so does a jump
+// by more than a factor of Jump (when above 1) in one 1/40 of the x
+// range (a figure that leaps from one feature of the curve to another).
 type series struct {
 	Label string
 	X, Y  []float64
+	Jump  float64
+}
+
+// jumpStep is the x step over which a series may change by its Jump
+// factor; a longer step allows the factor once per jumpStep.
+const jumpStep = 1.0 / 40
+
+// runs is segments with the series' jumps broken too.
+func (s series) runs() []plotter.XYs {
+	if s.Jump <= 1 {
+		return segments(s.X, s.Y)
+	}
+	var out []plotter.XYs
+	for _, seg := range segments(s.X, s.Y) {
+		start := 0
+		for i := 1; i < len(seg); i++ {
+			steps := math.Max(1, math.Abs(seg[i].X-seg[i-1].X)/jumpStep)
+			if r := seg[i].Y / seg[i-1].Y; r > math.Pow(s.Jump, steps) || r < math.Pow(s.Jump, -steps) {
+				out = append(out, seg[start:i])
+				start = i
+			}
+		}
+		out = append(out, seg[start:])
+	}
+	return out
 }
 
 // segments splits x, y at NaN values into runs to draw as lines.
@@ -91,10 +118,10 @@ func (f *panels) render(path string, inputs ...string) error {
 			p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
 		}
 		if pn.FreqY {
-			p.Y.Tick.Marker = freqTicks{}
+			p.Y.Tick.Marker = freqTicks{Gap: verticalGap}
 		}
 		if pn.OhmY {
-			p.Y.Tick.Marker = ohmTicks{}
+			p.Y.Tick.Marker = ohmTicks{Gap: verticalGap}
 		}
 		if pn.DBY {
 			p.Y.Tick.Marker = dbTicks{}
@@ -116,7 +143,7 @@ func (f *panels) render(path string, inputs ...string) error {
 		for k, s := range pn.Series {
 			col := colorFor(k, len(pn.Series))
 			first := true
-			for _, seg := range segments(s.X, s.Y) {
+			for _, seg := range s.runs() {
 				l, err := plotter.NewLine(seg)
 				if err != nil {
 					return err
@@ -180,34 +207,4 @@ func (f *panels) render(path string, inputs ...string) error {
 		data = svgFontFallback(data)
 	}
 	return writeFile(path, data, inputs...)
-}
-
-// tenths labels a 0..1 axis at every tenth.
-type tenths struct{}
-
-func (tenths) Ticks(min, max float64) []plot.Tick {
-	var ts []plot.Tick
-	for i := 0; i <= 10; i++ {
-		x := float64(i) / 10
-		if x >= min-1e-9 && x <= max+1e-9 {
-			ts = append(ts, plot.Tick{Value: x, Label: fmt.Sprintf("%g", x)})
-		}
-	}
-	return ts
-}
-
-// ohmTicks labels a log axis of resistances at 1-2-5 steps: 10 kΩ, 20 kΩ, …
-type ohmTicks struct{}
-
-func (ohmTicks) Ticks(min, max float64) []plot.Tick {
-	var ts []plot.Tick
-	for e := math.Floor(math.Log10(min)); e <= math.Ceil(math.Log10(max)); e++ {
-		for _, m := range []float64{1, 2, 5} {
-			v := m * math.Pow(10, e)
-			if v >= min && v <= max {
-				ts = append(ts, plot.Tick{Value: v, Label: ohm(v)})
-			}
-		}
-	}
-	return ts
 }

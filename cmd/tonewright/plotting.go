@@ -7,15 +7,14 @@ import (
 	"math"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/palette"
 	"gonum.org/v1/plot/palette/moreland"
 	"gonum.org/v1/plot/plotter"
-	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
@@ -35,11 +34,14 @@ type curve struct {
 	Color color.Color // nil: the palette's, or the colour map's for a family member
 
 	// Family curves are members of an ordered family (knob positions,
-	// swept values): Order places the curve on the family's colour scale.
-	// Style picks a dash pattern and marker for a second dimension (the
-	// loads of a sweep of sources and loads); StyleLabel names it.
+	// swept values): Order places the curve on the family's colour scale,
+	// OrderKnob names the knob it is a position of (knob families). Style
+	// picks a dash pattern and marker for a second dimension (the loads of
+	// a sweep of sources and loads, the other knobs of a family of several
+	// knobs); StyleLabel names it.
 	Family     bool
 	Order      float64
+	OrderKnob  string
 	Style      int
 	StyleLabel string
 }
@@ -154,7 +156,7 @@ func (m *familyMap) color(v float64) color.Color {
 // plain dash that no family style uses; family styles combine a pattern
 // with a marker, so that up to 24 second-dimension values differ.
 var (
-	refDash       = []vg.Length{vg.Points(9), vg.Points(4)}
+	refDash       = []vg.Length{vg.Points(7), vg.Points(5)}
 	styleDashes   = [][]vg.Length{nil, {vg.Points(1.5), vg.Points(2.5)}, {vg.Points(7), vg.Points(2.5), vg.Points(1.5), vg.Points(2.5)}, {vg.Points(7), vg.Points(2.5), vg.Points(1.5), vg.Points(2.5), vg.Points(1.5), vg.Points(2.5)}}
 	styleGlyphs   = []draw.GlyphDrawer{nil, draw.CircleGlyph{}, draw.SquareGlyph{}, draw.TriangleGlyph{}, draw.PlusGlyph{}, draw.CrossGlyph{}}
 	markerEvery   = 30 // grid points between markers (the grid has 120 a decade)
@@ -214,55 +216,6 @@ func (t lineAndGlyph) Thumbnail(c *draw.Canvas) {
 	t.s.Thumbnail(c)
 }
 
-// freqTicks labels a log frequency axis so that the labels neither run
-// together nor leave the band unlabelled: at 1-2-5 steps over up to four
-// decades, at the decades only over more, and at every step (with the
-// band's edges) over less than about a decade.
-type freqTicks struct{}
-
-func (freqTicks) Ticks(min, max float64) []plot.Tick {
-	decades := math.Log10(max / min)
-	labelled := func(m int) bool {
-		switch {
-		case decades > 4:
-			return m == 1
-		case decades > 1.3:
-			return m == 1 || m == 2 || m == 5
-		}
-		return true
-	}
-	var ts []plot.Tick
-	for d := math.Floor(math.Log10(min)); d <= math.Ceil(math.Log10(max)); d++ {
-		base := math.Pow(10, d)
-		for m := 1; m < 10; m++ {
-			v := float64(m) * base
-			if v < min*(1-1e-9) || v > max*(1+1e-9) {
-				continue
-			}
-			t := plot.Tick{Value: v}
-			if labelled(m) {
-				t.Label = freqLabel(v)
-			}
-			ts = append(ts, t)
-		}
-	}
-	if decades <= 1.3 {
-		// Label the band's edges unless a labelled tick is close by.
-		for _, e := range []float64{min, max} {
-			near := false
-			for _, t := range ts {
-				if t.Label != "" && math.Abs(math.Log10(t.Value/e)) < decades/12 {
-					near = true
-				}
-			}
-			if !near {
-				ts = append(ts, plot.Tick{Value: e, Label: freqLabel(e)})
-			}
-		}
-	}
-	return ts
-}
-
 // freqLabel writes a frequency tick label: 20, 500, 1k, 20k, 0.1.
 func freqLabel(v float64) string {
 	if v < 1 {
@@ -317,13 +270,25 @@ func checkPlotFlag(flag, path string, inputs ...string) error {
 	return nil
 }
 
-// knobScale is the colour scale of a family of blend knob positions.
+// knobScale is the colour scale of a family of knob positions: the bar
+// names the knob (the blend knob with what its ends do) and runs over its
+// positions.
 func knobScale(cs []curve) *colorScale {
-	s := &colorScale{Label: "blend knob (0 low-pass end, 1 high-pass end)", Min: math.Inf(1), Max: math.Inf(-1)}
+	s := &colorScale{Label: "knob position", Min: math.Inf(1), Max: math.Inf(-1)}
 	var orders []float64
 	for _, c := range cs {
-		if c.Family {
-			s.Min, s.Max = math.Min(s.Min, c.Order), math.Max(s.Max, c.Order)
+		if !c.Family {
+			continue
+		}
+		switch c.OrderKnob {
+		case "":
+		case networks.BlendKnob:
+			s.Label = "blend knob (0 low-pass end, 1 high-pass end)"
+		default:
+			s.Label = c.OrderKnob + " knob position"
+		}
+		s.Min, s.Max = math.Min(s.Min, c.Order), math.Max(s.Max, c.Order)
+		if !slices.Contains(orders, c.Order) {
 			orders = append(orders, c.Order)
 		}
 	}
@@ -382,13 +347,32 @@ func (b *bode) looks() ([]curveLook, *colorScale, *familyMap) {
 		scale = knobScale(b.Curves)
 	}
 	cmap := newFamilyMap(scale)
+	// A family of two or more dimensions (styled members) takes its
+	// palette colours by Order, as the colour map does: one colour per
+	// value of the colour dimension.
+	var orders []float64
+	styled := false
+	for _, c := range b.Curves {
+		if c.Family && c.Color == nil {
+			styled = styled || c.StyleLabel != ""
+			if !slices.Contains(orders, c.Order) {
+				orders = append(orders, c.Order)
+			}
+		}
+	}
+	slices.Sort(orders)
+	byOrder := styled && !useMap
 	palette := 0
 	for _, c := range b.Curves {
-		if c.Color == nil && !(useMap && c.Family) {
+		if c.Color == nil && !(useMap && c.Family) && !(byOrder && c.Family) {
 			palette++
 		}
 	}
 	next := 0
+	if byOrder {
+		palette += len(orders)
+		next = len(orders)
+	}
 	var out []curveLook
 	for _, c := range b.Curves {
 		var col color.Color = c.Color
@@ -396,6 +380,8 @@ func (b *bode) looks() ([]curveLook, *colorScale, *familyMap) {
 		case col != nil:
 		case useMap && c.Family:
 			col = cmap.color(c.Order)
+		case byOrder && c.Family:
+			col = colorFor(slices.Index(orders, c.Order), len(orders))
 		default:
 			col = colorFor(next, palette)
 			next++
@@ -431,52 +417,10 @@ func (b *bode) render(path string, inputs ...string) error {
 	}
 	useMap := b.usesColorMap()
 	// Label every ring when there are few; else an even selection, the
-	// first and last among them. A label that would overlap one already
-	// placed is left out; the caption says when any is.
+	// first and last among them. A label that finds no free place beside
+	// its ring is left out; the title says when any is.
 	ringStep := max(1, (marked+maxRingLabels-1)/maxRingLabels)
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for _, c := range b.Curves {
-		for _, v := range c.DB {
-			if !math.IsNaN(v) && !math.IsInf(v, 0) {
-				lo, hi = math.Min(lo, v), math.Max(hi, v)
-			}
-		}
-	}
-	decades := math.Log10(b.Range.To / b.Range.From)
-	var placed []point
-	// place finds where m's label goes: below the ring, or stacked one or
-	// two lines further down; a place is taken when it would cover
-	// another label or another ring. ok is false when all are taken.
-	// Sizes are in axis units: a label is about 7 % of the axes wide and
-	// 3.5 % high.
-	lineH := 0.035 * (hi - lo)
-	halfW := 0.035 * decades
-	var ringsAt []point
-	for _, c := range b.Curves {
-		ringsAt = append(ringsAt, c.Marks...)
-	}
-	place := func(m point) (at point, ok bool) {
-		for k := 0; k < 3; k++ {
-			at = point{m.Hz, m.DB - float64(k)*lineH}
-			top, bottom := at.DB-0.15*lineH, at.DB-1.45*lineH
-			clear := true
-			for _, p := range placed {
-				if math.Abs(math.Log10(at.Hz/p.Hz)) < 2*halfW && math.Abs(at.DB-p.DB) < 1.1*lineH {
-					clear = false
-				}
-			}
-			for _, r := range ringsAt {
-				if r != m && math.Abs(math.Log10(r.Hz/at.Hz)) < halfW+0.01*decades && r.DB < top && r.DB > bottom {
-					clear = false
-				}
-			}
-			if clear {
-				placed = append(placed, at)
-				return at, true
-			}
-		}
-		return at, false
-	}
+	rl := newRingLabels()
 	skipped := ringStep > 1
 	if caption != "" {
 		title += "\n" + caption
@@ -512,16 +456,23 @@ func (b *bode) render(path string, inputs ...string) error {
 	looks, scale, cmap := b.looks()
 	styles := map[int]bool{}
 	var styleEntries []legendEntry
-	var rings plotter.XYLabels
-	var ringStyles []text.Style
 	ring := 0
 	for i, c := range b.Curves {
 		look := looks[i]
 		col := look.color
-		thumb, err := addCurve(mag, xys(c.Hz, c.DB), look, vg.Points(2), i*7)
+		// The reference (dashed) is drawn thinner, and after the family,
+		// so that a curve it lies on still shows around and between its
+		// dashes.
+		width, phaseWidth := vg.Points(2), vg.Points(1.6)
+		if c.Dash {
+			width, phaseWidth = vg.Points(1.2), vg.Points(1)
+		}
+		pts := xys(c.Hz, c.DB)
+		thumb, err := addCurve(mag, pts, look, width, i*7)
 		if err != nil {
 			return err
 		}
+		rl.curves = append(rl.curves, pts)
 		if c.Label != "" && !(useMap && c.Family) {
 			legend = append(legend, legendEntry{c.Label, thumb})
 		}
@@ -544,18 +495,11 @@ func (b *bode) render(path string, inputs ...string) error {
 			label := ring%ringStep == 0 || ring == marked-1
 			ring++
 			for _, m := range c.Marks {
-				pts = append(pts, plotter.XY{X: m.Hz, Y: m.DB})
-				if !label {
-					continue
-				}
-				at, ok := place(m)
-				if !ok {
-					skipped = true
-				} else {
-					rings.XYs = append(rings.XYs, plotter.XY{X: at.Hz, Y: at.DB})
-					rings.Labels = append(rings.Labels, hz(m.Hz))
-					ringStyles = append(ringStyles, text.Style{Color: col, Font: font.From(plot.DefaultFont, vg.Points(9)),
-						XAlign: draw.XCenter, YAlign: draw.YTop, Handler: plot.DefaultTextHandler})
+				at := plotter.XY{X: m.Hz, Y: m.DB}
+				pts = append(pts, at)
+				rl.rings = append(rl.rings, at)
+				if label {
+					rl.labels = append(rl.labels, ringLabel{at, hz(m.Hz), col})
 				}
 			}
 			s, err := plotter.NewScatter(pts)
@@ -566,28 +510,22 @@ func (b *bode) render(path string, inputs ...string) error {
 			mag.Add(s)
 		}
 		if pha != nil && c.Deg != nil {
-			if _, err := addCurve(pha, xys(c.Hz, c.Deg), look, vg.Points(1.6), i*7); err != nil {
+			if _, err := addCurve(pha, xys(c.Hz, c.Deg), look, phaseWidth, i*7); err != nil {
 				return err
 			}
 		}
 	}
-	if skipped {
-		mag.Title.Text += "\nrings: the scoops, labelled where room allows"
-	}
-	if len(rings.XYs) > 0 {
-		lb, err := plotter.NewLabels(rings)
-		if err != nil {
-			return err
-		}
-		lb.TextStyle = ringStyles
-		lb.Offset = vg.Point{Y: -vg.Points(7)}
-		mag.Add(lb)
-	}
+	mag.Add(rl)
 	legend = append(legend, styleEntries...)
 	for _, t := range b.Targets {
 		e, err := addTarget(mag, t)
 		if err != nil {
 			return err
+		}
+		if math.IsNaN(t.DB) {
+			rl.curves = append(rl.curves, plotter.XYs{{X: t.Hz, Y: mag.Y.Min}, {X: t.Hz, Y: mag.Y.Max}})
+		} else {
+			rl.crosses = append(rl.crosses, plotter.XY{X: t.Hz, Y: t.DB})
 		}
 		if e.label != "" {
 			legend = append(legend, e)
@@ -614,16 +552,30 @@ func (b *bode) render(path string, inputs ...string) error {
 	}
 	side += vg.Points(16)
 	main := draw.Crop(dc, 0, -side, 0, 0)
-	var magArea draw.Canvas
-	if pha == nil {
-		mag.Draw(main)
-		magArea = main
-	} else {
-		tiles := draw.Tiles{Rows: 2, Cols: 1, PadTop: vg.Points(4), PadBottom: vg.Points(4), PadLeft: vg.Points(4), PadRight: vg.Points(10), PadY: vg.Points(10)}
-		cs := plot.Align([][]*plot.Plot{{mag}, {pha}}, tiles, main)
-		mag.Draw(cs[0][0])
-		pha.Draw(cs[1][0])
-		magArea = cs[0][0]
+	tiles := draw.Tiles{Rows: 2, Cols: 1, PadTop: vg.Points(4), PadBottom: vg.Points(4), PadLeft: vg.Points(4), PadRight: vg.Points(10), PadY: vg.Points(10)}
+	areas := func() (magC, phaC draw.Canvas) {
+		if b.Phase {
+			cs := plot.Align([][]*plot.Plot{{mag}, {pha}}, tiles, main)
+			return cs[0][0], cs[1][0]
+		}
+		return main, draw.Canvas{}
+	}
+	magArea, phaArea := areas()
+	// Room for a label under the lowest labelled ring: a scoop near the
+	// bottom of the curves lowers the axis a little.
+	if rl.makeRoom(mag, magArea) {
+		magArea, phaArea = areas()
+	}
+	// The title says when a ring went unlabelled: try the labels on the
+	// data area as it is, and if any is left out, add the line (which
+	// shrinks the area a little; the labels are placed again when drawn).
+	if _, left := rl.place(mag.DataCanvas(magArea), mag); left > 0 || skipped {
+		mag.Title.Text += "\nrings: the scoops, labelled where room allows"
+		magArea, phaArea = areas()
+	}
+	mag.Draw(magArea)
+	if pha != nil {
+		pha.Draw(phaArea)
 	}
 	// The side column: the legend at the top of the axes (below the
 	// title), the colour bar under it.
@@ -639,7 +591,7 @@ func (b *bode) render(path string, inputs ...string) error {
 		cb.Y.Tick.Label.Font.Size = vg.Points(9.5)
 		cb.Y.Tick.Marker = plot.ConstantTicks(scale.Ticks)
 		cb.Y.Min, cb.Y.Max = scale.Min, scale.Max
-		cb.Add(&plotter.ColorBar{ColorMap: cmap, Vertical: true})
+		cb.Add(colorBar{cmap: cmap, min: scale.Min, max: scale.Max})
 		area := draw.Canvas{Canvas: dc.Canvas, Rectangle: vg.Rectangle{
 			Min: vg.Point{X: x0, Y: magArea.Min.Y + vg.Points(40)},
 			Max: vg.Point{X: x0 + vg.Points(95), Y: bottom - vg.Points(14)},
@@ -768,13 +720,25 @@ func designCurves(d *networks.Design, ss []networks.Setting, withPhase bool) []c
 	m := networks.NewMeter(d.Band)
 	freqs := networks.LogGrid(d.Band.From, d.Band.To, 120)
 	varied := d.Varied(ss)
+	colour, styles := familyKnobs(d, ss, varied)
 	var cs []curve
 	for i, s := range ss {
 		k, err := d.Compile(s)
 		if err != nil {
 			continue // a valid design always compiles; nothing to draw otherwise
 		}
-		c := curve{Label: settingLabel(s, varied), Hz: freqs, DB: make([]float64, len(freqs)), Family: true, Order: familyOrder(s, varied, i)}
+		c := curve{Label: settingLabel(s, varied), Hz: freqs, DB: make([]float64, len(freqs)), Family: true, Order: float64(i)}
+		if colour != "" {
+			c.Order, c.OrderKnob = s[colour], colour
+		}
+		stride := 1
+		var styleLabel []string
+		for _, st := range styles {
+			c.Style += stride * slices.Index(st.positions, s[st.name])
+			stride *= len(st.positions)
+			styleLabel = append(styleLabel, st.name+" "+posLabel(s[st.name]))
+		}
+		c.StyleLabel = strings.Join(styleLabel, ", ")
 		if withPhase {
 			c.Deg = make([]float64, len(freqs))
 		}
@@ -793,6 +757,44 @@ func designCurves(d *networks.Design, ss []networks.Setting, withPhase bool) []c
 		cs = append(cs, c)
 	}
 	return cs
+}
+
+// knobPositions is a knob of a family of settings with its positions.
+type knobPositions struct {
+	name      string
+	positions []float64
+}
+
+// familyKnobs chooses how a family of settings is drawn: coloured by the
+// knob with the most positions (on a tie the swept knob, else the first),
+// styled (dash and marker) by the other knobs that take more than one
+// position. colour is "" when no knob moves.
+func familyKnobs(d *networks.Design, ss []networks.Setting, varied []string) (colour string, styles []knobPositions) {
+	var ks []knobPositions
+	for _, n := range varied {
+		k := knobPositions{name: n}
+		for _, s := range ss {
+			if !slices.Contains(k.positions, s[n]) {
+				k.positions = append(k.positions, s[n])
+			}
+		}
+		if len(k.positions) > 1 {
+			slices.Sort(k.positions)
+			ks = append(ks, k)
+		}
+	}
+	best := -1
+	for i, k := range ks {
+		if best < 0 || len(k.positions) > len(ks[best].positions) ||
+			len(k.positions) == len(ks[best].positions) && k.name == d.SweptKnob() {
+			best = i
+		}
+	}
+	if best < 0 {
+		return "", nil
+	}
+	colour = ks[best].name
+	return colour, slices.Delete(ks, best, best+1)
 }
 
 // atSwept returns the design's settings with its swept knob (the blend
@@ -819,38 +821,4 @@ func unwrap(deg []float64) {
 		}
 		deg[i] += off
 	}
-}
-
-// degTicks labels a phase axis every 45°.
-type degTicks struct{}
-
-func (degTicks) Ticks(min, max float64) []plot.Tick {
-	step := 45.0
-	if max-min > 450 {
-		step = 90
-	}
-	var ts []plot.Tick
-	for v := math.Ceil(min/step) * step; v <= max; v += step {
-		ts = append(ts, plot.Tick{Value: v, Label: fmt.Sprintf("%g", v)})
-	}
-	return ts
-}
-
-// dbTicks labels a level axis at a round step that gives four to ten
-// labels.
-type dbTicks struct{}
-
-func (dbTicks) Ticks(min, max float64) []plot.Tick {
-	step := 1.0
-	for _, s := range []float64{1, 2, 5, 10, 20, 50, 100} {
-		step = s
-		if (max-min)/s <= 10 {
-			break
-		}
-	}
-	var ts []plot.Tick
-	for v := math.Ceil(min/step) * step; v <= max+1e-9; v += step {
-		ts = append(ts, plot.Tick{Value: v, Label: fmt.Sprintf("%g", v)})
-	}
-	return ts
 }

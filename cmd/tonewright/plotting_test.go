@@ -167,3 +167,112 @@ func TestRevoicePlotShowsOriginal(t *testing.T) {
 		t.Errorf("a fresh synthesis plot shows an original design")
 	}
 }
+
+// The colour bar is drawn as vector shapes, not an embedded image, so that
+// every SVG renderer shows its colours.
+func TestColorBarIsVector(t *testing.T) {
+	d, err := loadDesign(demoFile)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := filepath.Join(t.TempDir(), "p.svg")
+	b := &bode{Title: "t", Range: d.Band, Curves: designCurves(d, atSwept(d, positions(11)...), false)}
+	if !b.usesColorMap() {
+		t.Fatal("11 positions: no colour bar")
+	}
+	if err := b.render(p); err != nil {
+		t.Fatal(err)
+	}
+	svg, err := os.ReadFile(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if strings.Contains(string(svg), "<image") {
+		t.Errorf("the SVG's colour bar is an embedded image")
+	}
+}
+
+// builtin is the default design of a built-in topology.
+func builtin(t *testing.T, name string) *networks.Design {
+	t.Helper()
+	for _, tp := range networks.Topologies() {
+		if tp.Name == name {
+			return tp.DefaultDesign()
+		}
+	}
+	t.Fatalf("no built-in %q", name)
+	return nil
+}
+
+// A family over two or three knobs is coloured by one knob and styled by
+// the others: no two curves look alike, the colour bar names the knob it
+// maps and runs over its positions, and only the blend knob's bar speaks
+// of low-pass and high-pass ends.
+func TestPlotKnobFamilies(t *testing.T) {
+	p3 := []float64{0, 0.5, 1}
+	for _, tc := range []struct {
+		design string
+		lists  []networks.KnobList
+		colour string // the knob the colours follow
+		bar    string // the colour bar's label ("" with a legend)
+	}{
+		{"bass-treble", []networks.KnobList{{Name: "bass", Positions: p3}, {Name: "treble", Positions: p3}}, "", "knob position"},
+		{"bass-treble", []networks.KnobList{{Name: "bass", Positions: []float64{0, 1}}, {Name: "treble", Positions: p3}}, "treble", ""},
+		{"bass-treble", []networks.KnobList{{Name: "bass", Positions: positions(11)}}, "bass", "bass knob position"},
+		{"three-band-stack", []networks.KnobList{{Name: "treble", Positions: p3}, {Name: "bass", Positions: p3}, {Name: "mid", Positions: p3}}, "", "knob position"},
+		{"blend", []networks.KnobList{{Name: networks.BlendKnob, Positions: positions(11)}}, "blend", "blend knob (0 low-pass end, 1 high-pass end)"},
+	} {
+		d := builtin(t, tc.design)
+		ss, err := d.Settings(tc.lists)
+		if err != nil {
+			t.Fatal(err)
+		}
+		name := fmt.Sprintf("%s %v", tc.design, tc.lists)
+		b := &bode{Range: d.Band, Curves: designCurves(d, ss, false)}
+		distinctLooks(t, name, b)
+		_, scale, _ := b.looks()
+		if tc.colour != "" {
+			for _, c := range b.Curves {
+				if c.OrderKnob != tc.colour {
+					t.Errorf("%s: coloured by %q, want %q", name, c.OrderKnob, tc.colour)
+					break
+				}
+			}
+		}
+		if !b.usesColorMap() {
+			continue
+		}
+		if !strings.HasSuffix(scale.Label, tc.bar) || (tc.design != "blend" && strings.Contains(scale.Label, "low-pass")) {
+			t.Errorf("%s: colour bar %q, want one ending %q", name, scale.Label, tc.bar)
+		}
+		if scale.Min != 0 || scale.Max != 1 {
+			t.Errorf("%s: colour bar runs %g–%g, want the knob's positions 0–1", name, scale.Min, scale.Max)
+		}
+	}
+}
+
+// A swept row with the design's own source and load is the design's curve:
+// its legend entry says so, the design's dashed curve is drawn thinner on
+// top of it, and the row's ring stands for both.
+func TestSweepRowEqualToDesign(t *testing.T) {
+	d, err := loadDesign(demoFile)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := networks.SweepLoads(d, nil, nil, []float64{d.Load.C, 470e-12, 1e-9}, networks.Setting{networks.BlendKnob: 0.5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b := sweepPlot(d, res, false, false, true)
+	if got := b.Curves[0].Label; !strings.HasSuffix(got, " (= the design)") {
+		t.Errorf("the row at the design's load C is labelled %q, want it to say it is the design", got)
+	}
+	for _, c := range b.Curves[1 : len(b.Curves)-1] {
+		if strings.Contains(c.Label, "the design") {
+			t.Errorf("row %q is not the design", c.Label)
+		}
+	}
+	if own := b.Curves[len(b.Curves)-1]; !own.Dash || len(own.Marks) != 0 {
+		t.Errorf("the design's curve: dashed %v, %d rings; want dashed with its ring left to the row", own.Dash, len(own.Marks))
+	}
+}

@@ -312,9 +312,18 @@ func sweepPlot(d *networks.Design, res *networks.SweepResult, bySource, byLoad, 
 		}
 		b.Curves = append(b.Curves, c)
 	}
+	// The design's own curve, dashed black on top. A row with the design's
+	// own source and load is the same curve: its legend entry says so,
+	// and its ring stands for both.
 	own := designCurves(d, []networks.Setting{res.Knobs}, false)[0]
 	own.Label = "design: " + label(d.Source.Impedance, d.Load.R, d.Load.C)
 	own.Dash, own.Color, own.Family = true, color.Black, false
+	for i, r := range res.Rows {
+		if r.SourceOhm == d.Source.Impedance && r.LoadOhm == d.Load.R && r.LoadC == d.Load.C {
+			b.Curves[i].Label += " (= the design)"
+			own.Marks = nil
+		}
+	}
 	b.Curves = append(b.Curves, own)
 	return b
 }

@@ -187,7 +187,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 			fmt.Fprintf(a.out, "\ndesign written to %s\n", f.out)
 		}
 		if f.plot != "" {
-			fmt.Fprintf(a.out, "plot written to %s\n", f.plot)
+			fmt.Fprintf(a.out, "wrote %s\n", f.plot)
 		}
 	}
 	if !res.Met {
