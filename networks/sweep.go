@@ -41,13 +41,6 @@ func MetricsOf(a *Analysis) StudyMetrics {
 	return m
 }
 
-// StudySetting returns the setting a study of d measures at: the design's
-// own (a knob without a position at its centre) with the knobs in over
-// moved.
-func StudySetting(d *Design, over map[string]float64) (Setting, error) {
-	return d.Setting(over)
-}
-
 // blendOf returns the blend knob's position in s, nil for a setting with
 // no blend knob.
 func blendOf(s Setting) *float64 {
