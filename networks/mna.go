@@ -82,21 +82,11 @@ func (n *Network) Compile() (*Solver, error) {
 // checkFloating finds nodes with no element path to ground. The source
 // counts as a path from its node to ground.
 func (s *Solver) checkFloating() error {
-	parent := make([]int, len(s.names))
-	for i := range parent {
-		parent[i] = i
-	}
-	find := func(i int) int {
-		for parent[i] != i {
-			parent[i] = parent[parent[i]]
-			i = parent[i]
-		}
-		return i
-	}
-	union := func(a, b int) { parent[find(a)] = find(b) }
-	union(s.emf, 0)
+	uf := newUnionFind(len(s.names))
+	find := uf.find
+	uf.union(s.emf, 0)
 	for _, st := range s.elems {
-		union(st.i, st.j)
+		uf.union(st.i, st.j)
 	}
 	var floating []string
 	for k := 1; k < len(s.names); k++ {

@@ -184,25 +184,16 @@ func (p *pencil) factorC() (u, v []float64, r int, err error) {
 	m := p.n
 	// Groups of capacitor-joined nodes; the ground and the ideal source's
 	// node are the group "grounded".
-	parent := make([]int, m+1) // m is ground
-	for i := range parent {
-		parent[i] = i
-	}
-	find := func(i int) int {
-		for parent[i] != i {
-			parent[i] = parent[parent[i]]
-			i = parent[i]
-		}
-		return i
-	}
+	uf := newUnionFind(m + 1) // m is ground
+	find := uf.find
 	for _, i := range p.caps {
 		for _, j := range p.caps {
 			if j != i && p.c[i*m+j] != 0 {
-				parent[find(i)] = find(j)
+				uf.union(i, j)
 			}
 		}
 		if p.grounded[i] {
-			parent[find(i)] = find(m)
+			uf.union(i, m)
 		}
 	}
 	groups := map[int][]int{}
