@@ -25,6 +25,7 @@ type goal struct {
 	hz, depth, balance float64
 	corner             bool
 	cornerHz           float64
+	prefer             Prefer // which design of those within tolerance
 }
 
 // tieBreak weighs the insertion loss at 1 kHz (dB) against the squared

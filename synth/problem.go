@@ -120,6 +120,9 @@ type Options struct {
 	// Tolerance is what the chosen design must meet to count as met;
 	// zero: PartsTolerance.
 	Tolerance Tolerance
+	// Prefer chooses among the designs of allowed values that meet the
+	// tolerance: Closest (the default) or LeastLoss.
+	Prefer Prefer
 	// Progress, if set, is called from time to time with the work done
 	// and the (estimated) work in all, in objective evaluations.
 	Progress func(done, total int)

@@ -30,6 +30,7 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 	if err != nil {
 		return nil, p.place(err)
 	}
+	g.prefer = opt.Prefer
 	vars, err := p.variables(base, s)
 	if err != nil {
 		return nil, p.place(err)
@@ -269,10 +270,21 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 	}
 	e.setLog(x)
 	ideal := e.values(nil)
-	chosen, cost := discrete(e, ideal)
+	var chosen []float64
+	var cost float64
+	walked := false
+	if fresh {
+		// Walk the allowed values along the exact solutions.
+		if vals, ok := walk(e, ideal, tol, g.prefer); ok {
+			chosen, cost, walked = vals, e.at(vals), true
+		}
+	}
+	if !walked {
+		chosen, cost = discrete(e, ideal)
+	}
 	// A second try at the snap, when the joint one misses the tolerance
 	// but the ideal values meet it (else no snap will).
-	if !meets(e, chosen, PartsTolerance) && meets(e, ideal, PartsTolerance) {
+	if !walked && !meets(e, chosen, PartsTolerance) && meets(e, ideal, PartsTolerance) {
 		if c2, f2 := snapSequential(e, ideal); f2 < cost {
 			chosen, cost = c2, f2
 		}

@@ -1,0 +1,121 @@
+package synth
+
+import (
+	"flag"
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"tonewright/eseries"
+	"tonewright/networks"
+)
+
+// -synthstats runs the long experiments whose figures the README quotes.
+var synthStats = flag.Bool("synthstats", false, "run the synthesis statistics experiments (slow)")
+
+// randomDesign draws an invented board: blend parts log-uniform over
+// plausible ranges (continuous values, or, with allowed, E24 resistors, E12
+// capacitors and a common pot), two filter sections, a source of 100 Ω to
+// 10 kΩ. It returns nil when the design has no scoop at knob 0.5 or no
+// corner. Invented test data.
+func randomDesign(rng *rand.Rand, allowed bool) *networks.Design {
+	lu := func(lo, hi float64) float64 { return lo * math.Exp(rng.Float64()*math.Log(hi/lo)) }
+	r := func(lo, hi float64) float64 {
+		v := lu(lo, hi)
+		if allowed {
+			v, _ = eseries.Nearest(eseries.E24, v)
+		}
+		return v
+	}
+	c := func(lo, hi float64) float64 {
+		v := lu(lo, hi)
+		if allowed {
+			v, _ = eseries.Nearest(eseries.E12, v)
+		}
+		return v
+	}
+	pots := []float64{25e3, 50e3, 100e3, 250e3, 500e3}
+	pot := pots[rng.IntN(len(pots))]
+	if !allowed {
+		pot = lu(25e3, 500e3)
+	}
+	d := knownDesign(r(10e3, 220e3), c(2e-9, 47e-9), c(470e-12, 10e-9), r(10e3, 220e3), pot,
+		r(2.2e3, 47e3), c(220e-12, 4.7e-9), math.Round(lu(100, 10e3)), 2)
+	m := networks.NewMeter(d.Band)
+	ch := d.Chain(0.5)
+	k := ch.Compile()
+	s, ok := m.Scoop(k)
+	if !ok || s.DepthDB > -2 || networks.CornerOf(d, m) == nil {
+		return nil
+	}
+	return d
+}
+
+// fineMet reports whether every check is within tol.
+func within(r *Result, tol Tolerance) bool {
+	for _, c := range r.Checks {
+		if !c.Found {
+			return false
+		}
+		if c.Unit == "Hz" && math.Abs(math.Log1p(c.Error)) > math.Log1p(tol.Freq)+1e-12 {
+			return false
+		}
+		if c.Unit == "dB" && math.Abs(c.Error) > tol.Level+1e-12 {
+			return false
+		}
+	}
+	return true
+}
+
+// TestStatsReachable measures, on 30 reachable targets (the figures of
+// random invented designs), how often the chosen E24/E12 parts come within
+// 1 % and 0.25 dB of every target, and on 15 targets taken from designs
+// made of allowed values, how often they come within 0.1 % and 0.02 dB.
+// go test ./synth -run TestStatsReachable -synthstats -v
+func TestStatsReachable(t *testing.T) {
+	if !*synthStats {
+		t.Skip("an experiment: run with -synthstats")
+	}
+	for _, c := range []struct {
+		name    string
+		allowed bool
+		n       int
+		tol     Tolerance
+	}{
+		{"random designs, within 1 % and 0.25 dB", false, 30, FineTolerance},
+		{"designs of allowed values, within 0.1 % and 0.02 dB", true, 15, Tolerance{Freq: 0.001, Level: 0.02}},
+	} {
+		rng := rand.New(rand.NewPCG(12, 34))
+		hits, feasible, done := 0, 0, 0
+		for done < c.n {
+			d := randomDesign(rng, c.allowed)
+			if d == nil {
+				continue
+			}
+			done++
+			tg := targetsOf(t, d)
+			n := 2
+			r, err := Solve(&Problem{Targets: tg, Source: &d.Source, Filters: &n}, Options{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if r.Feasible {
+				feasible++
+			}
+			ok := within(r, c.tol)
+			if ok {
+				hits++
+			}
+			worstF, worstL := 0.0, 0.0
+			for _, ch := range r.Checks {
+				if ch.Unit == "Hz" {
+					worstF = math.Max(worstF, math.Abs(ch.Error))
+				} else {
+					worstL = math.Max(worstL, math.Abs(ch.Error))
+				}
+			}
+			t.Logf("%2d: within %v, feasible %v, worst %.3f %% %.3f dB, %d evals", done, ok, r.Feasible, 100*worstF, worstL, r.Evaluations)
+		}
+		t.Logf("%s: %d of %d; ideal feasible in %d of %d", c.name, hits, c.n, feasible, c.n)
+	}
+}
