@@ -718,4 +718,3 @@ func (w *walker) roundings(x []float64, measure int) {
 		w.exact(c.vals)
 	}
 }
-
