@@ -25,7 +25,8 @@ type goal struct {
 	hz, depth, balance float64
 	corner             bool
 	cornerHz           float64
-	prefer             Prefer // which design of those within tolerance
+	prefer             Prefer     // which design of those within tolerance
+	priority           [][]string // which targets give way first; nil: DefaultPriority
 }
 
 // tieBreak weighs the insertion loss at 1 kHz (dB) against the squared

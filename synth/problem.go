@@ -55,6 +55,9 @@ type Problem struct {
 	// MaxChanges is the largest number of parts a re-voicing may change;
 	// 0 means no limit.
 	MaxChanges int
+	// Priority orders the targets for when they cannot all be met
+	// (ParsePriority); nil: DefaultPriority.
+	Priority [][]string
 
 	dec *networks.Decoder // the targets file's, to place errors; nil if built in code
 }

@@ -44,7 +44,32 @@ type Result struct {
 	MaxChanges int    `json:"max_changes,omitempty"`
 	StockFile  string `json:"stock_file,omitempty"`
 
+	// Starts is, when the first search missed a target, how many starts
+	// the rescue pulled onto the targets (see rescue); 0 otherwise. When
+	// Feasible is false no design within IdealTolerance was found in
+	// that many starts: the verdict rests on that search, not on a proof.
+	Starts int `json:"starts,omitempty"`
+	// Conflicts are, when the ideal parts miss, the targets missed, each
+	// with the nearest figure found while keeping the targets met
+	// (Held), those ranked above it first (Problem.Priority).
+	Conflicts []Conflict `json:"conflicts,omitempty"`
+	// Prefer is how the chosen design was chosen among those within the
+	// tolerance: "closest" or "loss".
+	Prefer string `json:"prefer"`
+
 	Evaluations int `json:"evaluations"` // of the objective, in all
+}
+
+// Conflict is a target the ideal parts miss: the nearest figure found
+// (none when Found is false) while keeping the targets in Held met.
+type Conflict struct {
+	Target  string   `json:"target"` // the Check name: "scoop balance", …
+	Key     string   `json:"key"`
+	Unit    string   `json:"unit"`
+	Wanted  float64  `json:"wanted"`
+	Nearest float64  `json:"nearest"`
+	Found   bool     `json:"found"`
+	Held    []string `json:"held"` // Check names
 }
 
 // Choice is one part of the chosen design.
@@ -127,6 +152,21 @@ func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, e
 	for _, c := range res.Checks {
 		res.Feasible = res.Feasible && c.IdealMet
 		res.Met = res.Met && c.Met
+	}
+	res.Starts, res.Prefer = r.starts, g.prefer.String()
+	if !res.Feasible {
+		var held []string
+		for _, c := range res.Checks {
+			if c.IdealMet {
+				held = append(held, c.Name)
+			}
+		}
+		for _, c := range res.Checks {
+			if !c.IdealMet {
+				res.Conflicts = append(res.Conflicts, Conflict{Target: c.Name, Key: c.Key, Unit: c.Unit, Wanted: c.Wanted,
+					Nearest: c.Ideal, Found: c.IdealFound, Held: held})
+			}
+		}
 	}
 	return res
 }

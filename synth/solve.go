@@ -31,6 +31,7 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 		return nil, p.place(err)
 	}
 	g.prefer = opt.Prefer
+	g.priority = p.Priority
 	vars, err := p.variables(base, s)
 	if err != nil {
 		return nil, p.place(err)
@@ -243,6 +244,7 @@ type run struct {
 	cost   float64   // of the chosen values
 	misses int       // targets the chosen values miss (beyond the tolerance)
 	met    bool      // misses == 0
+	starts int       // starts of the rescue; 0 when the first search met the targets
 }
 
 // solveRun searches one set of variables: the continuous stage from the
@@ -267,6 +269,20 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 		// The second phase: the least loss among the designs that meet
 		// the targets.
 		x = lean(e, x, logValues(freshSeeds(e.d, g, s, leanSectionRatios)))
+	}
+	// Before a verdict that the ideal parts miss, many more starts.
+	starts := 0
+	if !onTargets(e, x) {
+		var rs [][]float64
+		if fresh {
+			rs = freshSeeds(e.d, g, s, sectionRatios)
+		}
+		rc := rescue(e, x, rs)
+		starts = rc.starts
+		x = rc.x
+		if rc.met && fresh {
+			x = lean(e, x, nil)
+		}
 	}
 	e.setLog(x)
 	ideal := e.values(nil)
@@ -302,7 +318,16 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 	}
 	pr.evals += e.evals
 	pr.cur = 0
-	return &run{vars: vars, ideal: ideal, chosen: chosen, cost: cost, misses: miss, met: miss == 0}
+	return &run{vars: vars, ideal: ideal, chosen: chosen, cost: cost, misses: miss, met: miss == 0, starts: starts}
+}
+
+// onTargets reports whether the variables at x (log values) meet every
+// target within IdealTolerance.
+func onTargets(e *evaluator, x []float64) bool {
+	e.setLog(x)
+	var m Metrics
+	e.measure(&m)
+	return e.worst(&m) <= 1
 }
 
 // allowed reports whether every value of vals is one the variable may

@@ -119,3 +119,51 @@ func TestStatsReachable(t *testing.T) {
 		t.Logf("%s: %d of %d; ideal feasible in %d of %d", c.name, hits, c.n, feasible, c.n)
 	}
 }
+
+// unusualDesign draws an invented board over wide ranges (deep scoops,
+// high corners, heavy loading), as randomDesign does; nil when it has no
+// scoop at knob 0.5 or no corner. Invented test data.
+func unusualDesign(rng *rand.Rand) *networks.Design {
+	lu := func(lo, hi float64) float64 { return lo * math.Exp(rng.Float64()*math.Log(hi/lo)) }
+	pots := DefaultPots
+	d := knownDesign(lu(1e3, 1e6), lu(1e-9, 1e-6), lu(100e-12, 100e-9), lu(1e3, 1e6), pots[rng.IntN(len(pots))],
+		lu(1e3, 100e3), lu(100e-12, 10e-9), math.Round(lu(10, 47e3)), 1+rng.IntN(2))
+	m := networks.NewMeter(d.Band)
+	ch := d.Chain(0.5)
+	k := ch.Compile()
+	if _, ok := m.Scoop(k); !ok || networks.CornerOf(d, m) == nil {
+		return nil
+	}
+	return d
+}
+
+// TestStatsUnusual counts, on 200 unusual but reachable targets (the
+// figures of unusualDesign boards), how often the verdict says the ideal
+// parts cannot meet them.
+// go test ./synth -run TestStatsUnusual -synthstats -v
+func TestStatsUnusual(t *testing.T) {
+	if !*synthStats {
+		t.Skip("an experiment: run with -synthstats")
+	}
+	rng := rand.New(rand.NewPCG(56, 78))
+	wrong, done := 0, 0
+	for done < 200 {
+		d := unusualDesign(rng)
+		if d == nil {
+			continue
+		}
+		done++
+		tg := targetsOf(t, d)
+		n := len(d.Filters)
+		r, err := Solve(&Problem{Targets: tg, Source: &d.Source, Filters: &n}, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !r.Feasible {
+			wrong++
+			t.Logf("%3d: declared unreachable: scoop %.1f Hz %.2f dB balance %.2f dB, corner %.0f Hz, source %.0f Ω, %d sections",
+				done, *tg.ScoopHz, *tg.DepthDB, *tg.BalanceDB, *tg.CornerHz, d.Source.Impedance, n)
+		}
+	}
+	t.Logf("reachable targets declared unreachable: %d of %d", wrong, done)
+}
