@@ -184,7 +184,7 @@ func (mf *manifold) restore(x []float64, steps int) (gain, ss float64, ok bool) 
 		damping = 1e-3
 	}
 	blocked := 0 // steps in a row that ran into a bound
-	for step := 0; step < steps && !(worst <= restoreTol) && blocked < maxBlocked; step++ {
+	for step := 0; step < steps && !(worst <= restoreTol) && (blocked < maxBlocked || mf.leastSquares); step++ {
 		if !mf.have {
 			mf.jacobian(x)
 		}
@@ -207,7 +207,9 @@ func (mf *manifold) restore(x []float64, steps int) (gain, ss float64, ok bool) 
 		}
 		gy, ssy, wy := mf.measure(mf.y, mf.ry)
 		switch {
-		case ssy < ss && dd > 0:
+		case dd > 0 && (ssy < ss && math.IsInf(wy, 1) == math.IsInf(worst, 1) || math.IsInf(worst, 1) && !math.IsInf(wy, 1)):
+			// Better: a smaller error, and never a step that loses a
+			// wanted scoop or corner.
 			// Broyden's update: J += (Δr − J·d)·dᵀ / (dᵀd).
 			for i := 0; i < n; i++ {
 				jd := 0.0

@@ -43,6 +43,10 @@ const tieBreak = 0.1
 // the levels at the target frequency still give the search a slope.
 const noScoop = 1e5
 
+// noScoopWeighted is noScoop for the priority-weighted cost: more than any
+// weighted miss.
+const noScoopWeighted = 1e18
+
 // boundWeight is the penalty per squared natural-log unit by which a
 // continuous value leaves its range.
 const boundWeight = 1e4
@@ -73,6 +77,9 @@ type evaluator struct {
 	level networks.Level
 	k     networks.Compiled
 	evals int
+	// weights, when set, weigh the targets' errors by priority in the
+	// cost (see priorityWeights); nil: every target alike.
+	weights []float64
 
 	progress func()
 }
@@ -151,6 +158,18 @@ func (e *evaluator) cost(m *Metrics) float64 {
 		// The levels at the target frequency keep a slope; the penalty
 		// keeps a curve without a dip from ever beating one with it.
 		c += noScoop
+	}
+	if e.weights != nil {
+		// Targets that cannot all be met: each error weighed by its
+		// priority, squared, so that the lower ranks give way.
+		var errs [maxTargets]float64
+		for i, x := range errs[:e.targetErrors(m, &errs)] {
+			c += sq(e.weights[i] * x)
+		}
+		if math.IsInf(e.worst(m), 1) {
+			c += noScoopWeighted
+		}
+		return c - tieBreak*m.Gain1kDB
 	}
 	if g.scoop {
 		c += loss(math.Log(m.Scoop.Hz/g.hz)/IdealTolerance.Freq) +

@@ -26,11 +26,12 @@ import (
 // pulled again onto the targets weighted by rank, so that a lower-ranked
 // target gives way before a higher one.
 const (
-	rescueRandom = 24 // random starts over every part
-	rescueSeeds  = 24 // physics seeds, the best by cost (at least one per pot)
-	rescueSteps  = 20 // restoring steps per start
-	rescueBest   = 6  // points pulled again by priority
+	rescueRandom  = 24 // random starts over every part
+	rescueSeeds   = 24 // physics seeds, the best by cost (at least one per pot)
+	rescueSteps   = 20 // restoring steps per start
+	rescueBest    = 4  // points pulled again by priority
 	prioritySteps = 30
+	priorityEvals = 400 // Nelder–Mead evaluations per point pulled by priority
 	// rescueStream is the fixed PCG stream of the random starts.
 	rescueStream = 0x72657363756521
 )
@@ -240,10 +241,7 @@ func priorityPull(e *evaluator, points [][]float64) []float64 {
 		all[i] = i
 	}
 	ranks := e.goal.ranks()
-	weights := make([]float64, len(ranks))
-	for i, r := range ranks {
-		weights[i] = math.Pow(30, float64(3-min(r, 3)))
-	}
+	weights := priorityWeights(ranks)
 	mf := newManifold(e, all[:min(nv, len(ranks))], nil)
 	if nv < len(ranks) {
 		// More targets than parts: size the buffers by the targets.
@@ -258,6 +256,12 @@ func priorityPull(e *evaluator, points [][]float64) []float64 {
 		x := slices.Clone(p)
 		mf.have = false
 		mf.restore(x, prioritySteps)
+		// Then Nelder–Mead on the weighted errors, which goes where
+		// the steps stall against a part's range.
+		e.weights = weights
+		x, _ = nelderMead(e, x, 0.3, priorityEvals)
+		x, _ = nelderMead(e, x, 0.05, priorityEvals/2)
+		e.weights = nil
 		k := priorityKey(e, x, ranks, weights)
 		if best == nil || lessKey(k, bestKey) {
 			best, bestKey = x, k
@@ -305,4 +309,14 @@ func lessKey(a, b []float64) bool {
 		}
 	}
 	return false
+}
+
+// priorityWeights weigh each target's error by its rank: a factor of 30
+// per rank, so that a target gives way before one ranked above it.
+func priorityWeights(ranks []int) []float64 {
+	w := make([]float64, len(ranks))
+	for i, r := range ranks {
+		w[i] = math.Pow(30, float64(3-min(r, 3)))
+	}
+	return w
 }

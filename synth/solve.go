@@ -283,6 +283,10 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 		if rc.met && fresh {
 			x = lean(e, x, nil)
 		}
+		if !rc.met {
+			// The parts of allowed values keep the same priority.
+			e.weights = priorityWeights(g.ranks())
+		}
 	}
 	e.setLog(x)
 	ideal := e.values(nil)
