@@ -113,3 +113,30 @@ func fmtList(p [][]string) string {
 	}
 	return s + "]"
 }
+
+// A part range that pins the answer is named as the cause, with the part
+// and the value it sits at; a re-voicing whose free parts cannot reach the
+// targets says so and gives the search with every part free. Invented
+// targets and board.
+func TestCausesNamed(t *testing.T) {
+	r, err := Solve(&Problem{Targets: Targets{ScoopHz: ptr(700.0), DepthDB: ptr(-8.0), CornerHz: ptr(9e3)},
+		Source: &networks.Source{Impedance: 4.7e3}, Parts: Parts{ResistorRange: [2]float64{10e3, 10e3}}}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Met || r.Cause != CauseRange || len(r.AtLimit) == 0 || r.AtLimit[0].Limit != "pinned" || r.AtLimit[0].Value != 10e3 {
+		t.Errorf("met %v, cause %q, at limit %+v: want the pinned resistor range named", r.Met, r.Cause, r.AtLimit)
+	}
+	d := exampleBoard()
+	q, err := Solve(&Problem{Targets: Targets{ScoopHz: ptr(300.0)}, From: d,
+		Free: []string{"lowpass.c", "highpass.c", "filters.c"}}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if q.Met {
+		t.Skip("the capacitors reach 300 Hz: the test needs a target out of their reach")
+	}
+	if q.Cause != CauseFree || q.Freed == nil || !q.Freed.Met || len(q.Freed.Changes) == 0 {
+		t.Errorf("cause %q, freed %+v: want --free named, and the changes that meet the targets", q.Cause, q.Freed)
+	}
+}

@@ -41,6 +41,15 @@ type Result struct {
 	// below the number of free parts), else 0; StockFile is the stock
 	// file's name when a stock restricted the parts ("stock" for one
 	// built in code), else "".
+	// Freed is, when a re-voicing limited by Problem.Free misses, the
+	// best design with every part free; nil otherwise.
+	Freed *Result `json:"freed,omitempty"`
+	// AtLimit lists the free parts whose ideal value sits at a limit of
+	// its range (a resistor or capacitor range, the pot list's ends).
+	AtLimit []AtLimit `json:"at_limit,omitempty"`
+	// Widened is, when the ideal values miss with a part at a range
+	// limit, the search with every range widened a hundredfold.
+	Widened    *Result `json:"widened,omitempty"`
 	MaxChanges int    `json:"max_changes,omitempty"`
 	StockFile  string `json:"stock_file,omitempty"`
 
@@ -58,6 +67,14 @@ type Result struct {
 	Prefer string `json:"prefer"`
 
 	Evaluations int `json:"evaluations"` // of the objective, in all
+}
+
+// AtLimit is an ideal value at a limit of its range.
+type AtLimit struct {
+	Part  string  `json:"part"`
+	Value float64 `json:"value"`
+	Limit string  `json:"limit"` // "low", "high", or "pinned" (a range of one value)
+	Key   string  `json:"key"`   // the targets-file key of the range
 }
 
 // Conflict is a target the ideal parts miss: the nearest figure found

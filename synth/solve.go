@@ -83,11 +83,44 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 		pr.total += runEstimate(len(vars), false)
 		free = prune(base, g, unlimited(base, g, vars, s, rng, pr, tol, []*run{best}), tol)
 	}
-	pr.done()
+	// A re-voicing whose free parts miss: would freeing every part meet
+	// the targets? Then --free is the cause, and that search gives the
+	// nearest figures with the changes they need.
+	var freed *run
+	var freedP *Problem
+	if p.From != nil && p.Free != nil && !best.met && (free == nil || !free.met) {
+		q := *p
+		q.Free = nil
+		if all, err := q.variables(base, s); err == nil && len(all) > len(vars) {
+			pr.total += runEstimate(len(all), false)
+			freed = prune(base, g, unlimited(base, g, all, s, rng, pr, tol, nil), tol)
+			freedP = &q
+		}
+	}
 	res := best.result(p, base, g, tol, 0)
 	if free != nil {
 		res.Unlimited = free.result(p, base, g, tol, 0)
 	}
+	if freed != nil {
+		res.Freed = freed.result(freedP, base, g, tol, 0)
+	}
+	// Ideal values that sit at a range limit: would wider ranges meet the
+	// targets? Then the range is the cause.
+	res.AtLimit = atLimits(best, s)
+	if !res.Feasible && len(res.AtLimit) > 0 {
+		ws := s.widened(rangeWidening)
+		if wv, err := p.variables(base, ws); err == nil {
+			pr.total += runEstimate(len(wv), p.From == nil)
+			var wr *run
+			if p.From == nil {
+				wr = solveRun(base, g, wv, true, ws, rng, pr, tol, nil)
+			} else {
+				wr = unlimited(base, g, wv, ws, rng, pr, tol, nil)
+			}
+			res.Widened = wr.result(p, base, g, tol, 0)
+		}
+	}
+	pr.done()
 	res.Evaluations = pr.evals
 	if limited {
 		res.MaxChanges = p.MaxChanges
@@ -114,19 +147,76 @@ const (
 	// Problem.MaxChanges; without the limit the ideal values meet them
 	// (Result.Unlimited is that search).
 	CauseMaxChanges = "max-changes"
+	// CauseFree: the parts --free leaves free cannot reach the targets;
+	// with every part free they can (Result.Freed is that search).
+	CauseFree = "free"
+	// CauseRange: the ideal values miss with a part at a range limit
+	// (Result.AtLimit); with every range widened a hundredfold they
+	// meet the targets (Result.Widened is that search).
+	CauseRange = "range"
 )
 
 // cause says why res misses, "" when it does not.
 func cause(res *Result) string {
+	helps := func(r *Result) bool { return r != nil && (r.Met || r.Feasible && !res.Feasible) }
 	switch {
 	case res.Met:
 		return ""
-	case res.Unlimited != nil && (res.Unlimited.Met || res.Unlimited.Feasible && !res.Feasible):
+	case helps(res.Unlimited):
 		return CauseMaxChanges
+	case helps(res.Freed):
+		return CauseFree
+	case res.Widened != nil && res.Widened.Feasible:
+		return CauseRange
 	case res.Feasible:
 		return CauseParts
 	}
 	return CauseNetwork
+}
+
+// rangeWidening is the factor by which the check of a binding range
+// widens every range, either way.
+const rangeWidening = 100
+
+// widened returns the sets with every continuous range widened by the
+// factor either way (the series are not limited by a range there; a list
+// or a stock keeps its members).
+func (s *sets) widened(k float64) *sets {
+	w := *s
+	w.resRange = [2]float64{s.resRange[0] / k, s.resRange[1] * k}
+	w.capRange = [2]float64{s.capRange[0] / k, s.capRange[1] * k}
+	w.potRange = [2]float64{s.potRange[0] / k, s.potRange[1] * k}
+	return &w
+}
+
+// atLimits lists the free parts whose ideal value sits at a limit of its
+// continuous range.
+func atLimits(r *run, s *sets) []AtLimit {
+	key := map[networks.PartKind]string{networks.PartResistor: "parts.resistor_range",
+		networks.PartCapacitor: "parts.capacitor_range", networks.PartPot: "parts.pots"}
+	var out []AtLimit
+	for i, v := range r.vars {
+		x := math.Log(r.ideal[i])
+		_, _, rg := s.of(v.kind)
+		// The range's own figures, not their logs' round trip.
+		exact := func(lg float64) float64 {
+			for _, b := range rg {
+				if math.Abs(math.Log(b)-lg) < 1e-9 {
+					return b
+				}
+			}
+			return math.Exp(lg)
+		}
+		switch {
+		case !(v.lo < v.hi):
+			out = append(out, AtLimit{Part: v.name, Value: exact(v.lo), Limit: "pinned", Key: key[v.kind]})
+		case x <= v.lo+1e-3:
+			out = append(out, AtLimit{Part: v.name, Value: exact(v.lo), Limit: "low", Key: key[v.kind]})
+		case x >= v.hi-1e-3:
+			out = append(out, AtLimit{Part: v.name, Value: exact(v.hi), Limit: "high", Key: key[v.kind]})
+		}
+	}
+	return out
 }
 
 // unlimited searches a re-voicing over every free part at once. A search
