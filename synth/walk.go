@@ -423,7 +423,9 @@ func membersNear(v *variable, x, h float64) []float64 {
 
 // walk is the standard-value walk from the ideal values (exact, on the
 // targets). It returns the chosen values and whether it could run (the
-// problem has slaved parts); the values are then the best measured.
+// problem has slaved parts); the values are then the best measured, and
+// ideal is overwritten with the exact design nearest them (the free parts
+// at their chosen values) when the targets can be solved there.
 func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer) ([]float64, bool) {
 	slaved, free := slavedVars(e)
 	if slaved == nil || len(free) == 0 {
@@ -608,6 +610,19 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer) ([]float6
 	}
 	best := w.best[0]
 	vals := w.descend(slices.Clone(best.vals))
+	// The exact design nearest the chosen one: the free parts at their
+	// chosen values, the slaved parts solved for the targets. It is the
+	// ideal the report compares the chosen parts with.
+	for j := range x {
+		x[j] = math.Log(vals[j])
+	}
+	w.mf.have = false
+	if _, _, ok := w.mf.restore(x, startSteps); ok {
+		for j := range ideal {
+			ideal[j] = math.Exp(x[j])
+		}
+	}
+	e.setValues(vals)
 	return vals, true
 }
 

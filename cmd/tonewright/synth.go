@@ -29,6 +29,7 @@ type synthFlags struct {
 	resistors, capacitors, pots, stock  string
 	from, free                          string
 	maxChanges                          int
+	prefer, priority                    string
 	out, plot                           string
 	json                                bool
 	seed                                uint64
@@ -88,6 +89,8 @@ design is still reported and written).`,
 	fl.StringVar(&f.plot, "plot", "", "draw the chosen design with the targets to `FILE` (.png or .svg)")
 	fl.BoolVar(&f.json, "json", false, "print targets, ideal and chosen designs and the analysis as JSON")
 	fl.Uint64Var(&f.seed, "seed", 0, "seed of the search's random starts")
+	fl.StringVar(&f.prefer, "prefer", "closest", "among the designs within tolerance: closest (figures nearest the targets) or loss (least loss at 1 kHz)")
+	fl.StringVar(&f.priority, "priority", "", "targets kept first when they cannot all be met, e.g. hz+corner,depth,balance (the default)")
 	return c
 }
 
@@ -139,6 +142,13 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 	}
 
 	opt := synth.Options{Seed: f.seed}
+	switch strings.ToLower(strings.TrimSpace(f.prefer)) {
+	case "closest":
+	case "loss":
+		opt.Prefer = synth.LeastLoss
+	default:
+		return usageErrorf("--prefer %q: give closest (the figures nearest the targets) or loss (the least insertion loss)", f.prefer)
+	}
 	var bar *progressbar.ProgressBar
 	if a.tty {
 		bar = progressbar.NewOptions(1, progressbar.OptionSetWriter(a.err), progressbar.OptionSetDescription("synth"),
@@ -173,7 +183,8 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		}
 		if err := printJSON(a.out, synthJSON{Targets: res.Targets, Ideal: synth.NewDesignJSON(res.Ideal),
 			Design: synth.NewDesignJSON(res.Design), Achieved: an, Met: res.Met, Feasible: res.Feasible,
-			Parts: res.Parts, Checks: res.Checks, Changes: nonNil(res.Changes)}); err != nil {
+			Parts: res.Parts, Checks: res.Checks, Changes: nonNil(res.Changes), Prefer: res.Prefer, Cause: res.Cause,
+			Starts: res.Starts, Conflict: res.Conflicts, AtLimit: res.AtLimit}); err != nil {
 			return err
 		}
 	} else {
@@ -202,6 +213,11 @@ type synthJSON struct {
 	Parts    []synth.Choice     `json:"parts"`
 	Checks   []synth.Check      `json:"checks"`
 	Changes  []synth.Change     `json:"changes"`
+	Prefer   string             `json:"prefer"`
+	Cause    string             `json:"cause,omitempty"`
+	Starts   int                `json:"starts,omitempty"`
+	Conflict []synth.Conflict   `json:"conflicts,omitempty"`
+	AtLimit  []synth.AtLimit    `json:"at_limit,omitempty"`
 }
 
 func nonNil(c []synth.Change) []synth.Change {
@@ -352,6 +368,13 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 			return usageErrorf("--free: no part named: give part names separated by commas, e.g. lowpass.c,highpass.c")
 		}
 	}
+	if set("priority") {
+		pr, err := synth.ParsePriority(f.priority)
+		if err != nil {
+			return usageErrorf("--priority %q: %v", f.priority, err)
+		}
+		p.Priority = pr
+	}
 	if set("max-changes") {
 		if f.maxChanges < 0 {
 			return usageErrorf("--max-changes %d: give a number of parts, 1 or more (0: no limit)", f.maxChanges)
@@ -448,11 +471,23 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 	fmt.Fprintf(w, "tolerances: ideal parts %.1f %% and %.1f dB, chosen parts %.0f %% and %.0f dB (* marks a miss)\n",
 		100*synth.IdealTolerance.Freq, synth.IdealTolerance.Level, 100*synth.PartsTolerance.Freq, synth.PartsTolerance.Level)
 
+	if res.Prefer == "loss" {
+		fmt.Fprintln(w, "chosen: of the designs within tolerance, the one of least loss at 1 kHz (--prefer loss)")
+	} else {
+		fmt.Fprintln(w, "chosen: of the designs within tolerance, the one closest to the targets (--prefer closest)")
+	}
+	for _, l := range res.AtLimit {
+		fmt.Fprintf(w, "note: %s\n", atLimitLine(l))
+	}
+
 	if revoice {
 		fmt.Fprintln(w)
-		if len(res.Changes) == 0 {
+		switch {
+		case len(res.Changes) == 0 && res.Met:
 			fmt.Fprintln(w, "no part needs to change")
-		} else {
+		case len(res.Changes) == 0:
+			fmt.Fprintln(w, "no change of the free parts brings the missed targets closer")
+		default:
 			fmt.Fprintf(w, "swap %d %s:\n", len(res.Changes), plural(len(res.Changes), "part", "parts"))
 			for _, ch := range res.Changes {
 				fmt.Fprintf(w, "  %s\n", changeLine(ch))
@@ -481,14 +516,29 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 			}
 		case synth.CauseParts:
 			fmt.Fprintf(w, "%s\n", partsCause(res))
+		case synth.CauseFree:
+			fmt.Fprintf(w, "%s\n", freeCause(res))
+			if u := res.Freed; u != nil {
+				for _, ch := range u.Changes {
+					fmt.Fprintf(w, "  %s\n", changeLine(ch))
+				}
+			}
+		case synth.CauseRange:
+			fmt.Fprintf(w, "%s\n", rangeCause(res))
 		default:
 			if held := heldParts(res); len(held) > 0 {
-				fmt.Fprintf(w, "the ideal values of the free parts miss too: with %s held as they are, these targets are out of reach;\n", strings.Join(held, ", "))
-				fmt.Fprintln(w, "free more parts (--free) to see what the whole network can give; the ideal column shows the nearest achievable figures")
-				break
+				fmt.Fprintf(w, "the ideal values of the free parts miss too: with %s held as they are (--free), no design within the tolerance was found;\n", strings.Join(held, ", "))
+				fmt.Fprintln(w, "the ideal column shows the nearest figures found")
+			} else {
+				fmt.Fprintf(w, "the ideal parts miss too: %s;\n", searchSaid(res))
+				fmt.Fprintln(w, "the ideal column shows the nearest figures found")
 			}
-			fmt.Fprintln(w, "the ideal parts miss too: these targets ask for more than the network, band and surroundings can give;")
-			fmt.Fprintln(w, "the ideal column shows the nearest achievable figures")
+		}
+		for _, c := range res.Conflicts {
+			fmt.Fprintf(w, "  %s\n", conflictLine(c))
+		}
+		if len(res.Conflicts) > 0 {
+			fmt.Fprintln(w, "targets kept first: scoop frequency and corner, then depth, then balance, unless --priority says otherwise")
 		}
 	}
 }
@@ -635,14 +685,116 @@ func unmetMessage(res *synth.Result) string {
 		msg += ")"
 	case synth.CauseParts:
 		msg += " (" + partsCause(res) + ")"
+	case synth.CauseFree:
+		msg += " (" + freeCause(res)
+		if u := res.Freed; u != nil && u.Met {
+			var sw []string
+			for _, ch := range u.Changes {
+				sw = append(sw, ch.Part)
+			}
+			msg += " " + strings.Join(sw, ", ")
+		}
+		msg += ")"
+	case synth.CauseRange:
+		msg += " (" + rangeCause(res) + ")"
 	default:
 		if held := heldParts(res); len(held) > 0 {
-			msg += " (out of reach with " + strings.Join(held, ", ") + " held; free more parts with --free)"
+			msg += " (no design within the tolerance found with " + strings.Join(held, ", ") + " held by --free)"
 			break
 		}
-		msg += " (beyond what this network can give; see the nearest achievable figures above)"
+		msg += " (" + searchSaid(res) + "; see the nearest figures above)"
 	}
 	return msg
+}
+
+// searchSaid says what the verdict that the ideal parts miss rests on.
+func searchSaid(res *synth.Result) string {
+	if res.Starts > 0 {
+		return fmt.Sprintf("no design within the tolerance was found in %d starts (physics seeds, random starts over every part, each pot value) pulled onto the targets by least squares", res.Starts)
+	}
+	return "no design within the tolerance was found"
+}
+
+// conflictLine says how near a missed target comes while the targets met
+// are kept.
+func conflictLine(c synth.Conflict) string {
+	near := "none found"
+	if c.Found {
+		near = figure(c.Unit, c.Nearest, true)
+	}
+	if len(c.Held) == 0 {
+		return fmt.Sprintf("%s: wanted %s, nearest found %s", c.Target, figure(c.Unit, c.Wanted, true), near)
+	}
+	held := strings.Join(c.Held, ", ")
+	if k := len(c.Held); k > 1 {
+		held = strings.Join(c.Held[:k-1], ", ") + " and " + c.Held[k-1]
+	}
+	return fmt.Sprintf("%s: wanted %s; the nearest that keeps the %s is %s", c.Target, figure(c.Unit, c.Wanted, true), held, near)
+}
+
+// atLimitLine flags an ideal value at a limit of its range.
+func atLimitLine(l synth.AtLimit) string {
+	unit := "Ω"
+	if strings.HasSuffix(l.Part, ".c") {
+		unit = "F"
+	}
+	switch l.Limit {
+	case "pinned":
+		return fmt.Sprintf("%s is pinned at %s by %s (a range of one value)", l.Part, withUnit(l.Value, 3, unit), l.Key)
+	case "low":
+		return fmt.Sprintf("the ideal %s sits at the low end of %s (%s)", l.Part, l.Key, withUnit(l.Value, 3, unit))
+	}
+	return fmt.Sprintf("the ideal %s sits at the high end of %s (%s)", l.Part, l.Key, withUnit(l.Value, 3, unit))
+}
+
+// rangeCause blames the ranges the ideal values sit at, and says what
+// wider ranges give.
+func rangeCause(res *synth.Result) string {
+	var parts []string
+	for _, l := range res.AtLimit {
+		parts = append(parts, fmt.Sprintf("%s at %s (%s)", l.Part, withUnit(l.Value, 3, unitOf(l.Part)), l.Key))
+	}
+	msg := "the part ranges bind: " + strings.Join(parts, ", ")
+	if w := res.Widened; w != nil && w.Feasible {
+		var need []string
+		for _, l := range res.AtLimit {
+			name := l.Part
+			if strings.HasPrefix(name, "filters.") {
+				name = "filter1." + strings.TrimPrefix(name, "filters.") // the sections are tied
+			}
+			for _, c := range w.Parts {
+				if c.Name == name {
+					need = append(need, fmt.Sprintf("%s %s", l.Part, withUnit(c.Ideal, 3, unitOf(c.Name))))
+				}
+			}
+		}
+		msg += "; with every range widened 100× the ideal parts meet every target"
+		if len(need) > 0 {
+			msg += " (" + strings.Join(need, ", ") + ")"
+		}
+	}
+	return msg
+}
+
+// freeCause says that the parts --free left free cannot reach the targets.
+func freeCause(res *synth.Result) string {
+	held := heldParts(res)
+	u := res.Freed
+	msg := fmt.Sprintf("the free parts cannot reach the targets with %s held (--free)", strings.Join(held, ", "))
+	if u != nil && u.Met {
+		n := len(u.Changes)
+		msg += fmt.Sprintf("; with every part free, %d %s meet every target:", n, plural(n, "change", "changes"))
+	} else if u != nil {
+		msg += "; with every part free the ideal parts meet every target"
+	}
+	return msg
+}
+
+func unitOf(part string) string {
+	if strings.HasSuffix(part, ".c") {
+		return "F"
+	}
+	return "Ω"
 }
 
 // heldParts lists the parts a re-voicing kept fixed because --free left
