@@ -50,8 +50,8 @@ type Result struct {
 	// Widened is, when the ideal values miss with a part at a range
 	// limit, the search with every range widened a hundredfold.
 	Widened    *Result `json:"widened,omitempty"`
-	MaxChanges int    `json:"max_changes,omitempty"`
-	StockFile  string `json:"stock_file,omitempty"`
+	MaxChanges int     `json:"max_changes,omitempty"`
+	StockFile  string  `json:"stock_file,omitempty"`
 
 	// Starts is, when the first search missed a target, how many starts
 	// the rescue pulled onto the targets (see rescue); 0 otherwise. When
