@@ -2,6 +2,7 @@ package synth
 
 import (
 	"math"
+	"math/cmplx"
 
 	"tonewright/eseries"
 	"tonewright/networks"
@@ -16,6 +17,10 @@ type Metrics struct {
 	CornerHz    float64        `json:"corner_hz"` // with CornerFound false: 0
 	CornerFound bool           `json:"corner_found"`
 	Gain1kDB    float64        `json:"gain_1k_db"` // at knob 0.5
+	// OutputOhm is |Z| looking back into the output at 1 kHz with the
+	// knob at the scoop's position; measured only with a
+	// max_output_impedance limit, else 0.
+	OutputOhm float64 `json:"output_impedance_ohm,omitempty"`
 }
 
 // goal is a resolved set of targets.
@@ -25,6 +30,7 @@ type goal struct {
 	hz, depth, balance float64
 	corner             bool
 	cornerHz           float64
+	maxOut, maxLoss    float64    // limits: output impedance (Ω) and loss (dB); 0: none
 	prefer             Prefer     // which design of those within tolerance
 	priority           [][]string // which targets give way first; nil: DefaultPriority
 }
@@ -122,6 +128,9 @@ func (e *evaluator) measure(m *Metrics) {
 	}
 	e.compile(g.at)
 	m.Scoop, m.ScoopFound = e.meter.ScoopOrLevelsAt(&e.k, f)
+	if g.maxOut > 0 {
+		m.OutputOhm = cmplx.Abs(e.k.OutputImpedance(1000))
+	}
 	if g.at == 0.5 {
 		m.Gain1kDB = networks.Gain1k(&e.k)
 	}
@@ -153,7 +162,7 @@ func (e *evaluator) cornerSurrogate() float64 {
 // loss (squared near the targets), plus the tie-break on insertion loss.
 func (e *evaluator) cost(m *Metrics) float64 {
 	g := &e.goal
-	c := 0.0
+	c := limitPenalty * e.overLimits(m)
 	if g.scoop && !m.ScoopFound {
 		// The levels at the target frequency keep a slope; the penalty
 		// keeps a curve without a dip from ever beating one with it.
@@ -303,4 +312,23 @@ func (e *evaluator) at(vals []float64) float64 {
 		return math.Inf(1)
 	}
 	return c
+}
+
+// limitPenalty weighs how far a design breaks a limit (overLimits): more
+// than the targets' errors, so that the search keeps within the limits.
+const limitPenalty = 1e4
+
+// overLimits is how far the design breaks the limits, squared: the
+// output impedance in tenths of its natural log over the limit, the loss
+// in tenths of a dB over it; 0 within them.
+func (e *evaluator) overLimits(m *Metrics) float64 {
+	g := &e.goal
+	over := 0.0
+	if g.maxOut > 0 && m.OutputOhm > g.maxOut {
+		over += sq(10 * math.Log(m.OutputOhm/g.maxOut))
+	}
+	if g.maxLoss > 0 && -m.Gain1kDB > g.maxLoss {
+		over += sq(10 * (-m.Gain1kDB - g.maxLoss))
+	}
+	return over
 }

@@ -55,6 +55,9 @@ type Problem struct {
 	// MaxChanges is the largest number of parts a re-voicing may change;
 	// 0 means no limit.
 	MaxChanges int
+	// Limits are practical limits the design must keep.
+	Limits Limits
+
 	// Priority orders the targets for when they cannot all be met
 	// (ParsePriority); nil: DefaultPriority.
 	Priority [][]string
@@ -73,6 +76,25 @@ type Targets struct {
 	At        *float64 // knob position the scoop is measured at; nil: DefaultAt
 	CornerHz  *float64 // output corner at knob 1, Hz
 }
+
+// Limits are practical limits on the design (targets file: limits:). A
+// design that breaks one is not offered as meeting the targets.
+type Limits struct {
+	// MaxOutputImpedance bounds |Z| looking back into the output at
+	// 1 kHz, the knob at the scoop's position, in ohms; 0: no limit.
+	MaxOutputImpedance float64
+	// MinCapacitor is the smallest capacitor chosen, in farads; nil:
+	// DefaultMinCapacitor. It raises the capacitor range's low end.
+	MinCapacitor *float64
+	// MaxLossDB bounds the insertion loss at 1 kHz (knob 0.5), in dB;
+	// 0: no limit.
+	MaxLossDB float64
+}
+
+// DefaultMinCapacitor is the smallest capacitor a synthesis chooses unless
+// told otherwise: below about 100 pF the strays of the wiring and the
+// cable matter (common practice, no published source).
+const DefaultMinCapacitor = 100e-12
 
 // Parts says which values the parts may take.
 type Parts struct {

@@ -16,9 +16,10 @@ type Result struct {
 	IdealMetrics Metrics `json:"ideal_metrics"` // of Ideal
 	Metrics      Metrics `json:"metrics"`       // of Design
 
-	Parts   []Choice `json:"parts"`   // every part of Design, in signal order
-	Checks  []Check  `json:"checks"`  // every target
-	Changes []Change `json:"changes"` // re-voicing: the parts to swap
+	Parts   []Choice     `json:"parts"`            // every part of Design, in signal order
+	Checks  []Check      `json:"checks"`           // every target
+	Limits  []LimitCheck `json:"limits,omitempty"` // every limit set
+	Changes []Change     `json:"changes"`          // re-voicing: the parts to swap
 
 	// Feasible reports whether the continuous optimum meets every target
 	// within IdealTolerance; when it does not, the targets ask for more
@@ -67,6 +68,28 @@ type Result struct {
 	Prefer string `json:"prefer"`
 
 	Evaluations int `json:"evaluations"` // of the objective, in all
+}
+
+// LimitCheck is one practical limit against the ideal and chosen designs.
+type LimitCheck struct {
+	Name     string  `json:"name"` // "output impedance", "loss at 1 kHz", "smallest capacitor"
+	Key      string  `json:"key"`  // limits.max_output_impedance, …
+	Unit     string  `json:"unit"` // "Ω", "dB" or "F"
+	Limit    float64 `json:"limit"`
+	Ideal    float64 `json:"ideal"`
+	Achieved float64 `json:"achieved"`
+	IdealMet bool    `json:"ideal_met"`
+	Met      bool    `json:"met"`
+}
+
+// LimitsMet reports whether the chosen design keeps every limit.
+func (r *Result) LimitsMet() bool {
+	for _, l := range r.Limits {
+		if !l.Met {
+			return false
+		}
+	}
+	return true
 }
 
 // AtLimit is an ideal value at a limit of its range.
@@ -169,6 +192,19 @@ func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, e
 	for _, c := range res.Checks {
 		res.Feasible = res.Feasible && c.IdealMet
 		res.Met = res.Met && c.Met
+	}
+	if g.maxOut > 0 {
+		res.Limits = append(res.Limits, LimitCheck{Name: "output impedance", Key: "limits.max_output_impedance", Unit: "Ω", Limit: g.maxOut,
+			Ideal: res.IdealMetrics.OutputOhm, Achieved: res.Metrics.OutputOhm,
+			IdealMet: res.IdealMetrics.OutputOhm <= g.maxOut, Met: res.Metrics.OutputOhm <= g.maxOut})
+	}
+	if g.maxLoss > 0 {
+		res.Limits = append(res.Limits, LimitCheck{Name: "loss at 1 kHz", Key: "limits.max_loss_db", Unit: "dB", Limit: g.maxLoss,
+			Ideal: -res.IdealMetrics.Gain1kDB, Achieved: -res.Metrics.Gain1kDB,
+			IdealMet: -res.IdealMetrics.Gain1kDB <= g.maxLoss+0.05, Met: -res.Metrics.Gain1kDB <= g.maxLoss})
+	}
+	for _, l := range res.Limits {
+		res.Met = res.Met && l.Met
 	}
 	res.Starts, res.Prefer = r.starts, g.prefer.String()
 	if !res.Feasible {

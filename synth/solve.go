@@ -22,6 +22,9 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 	if err != nil {
 		return nil, p.place(err)
 	}
+	if err := p.Limits.apply(s); err != nil {
+		return nil, p.place(err)
+	}
 	base, err := p.design()
 	if err != nil {
 		return nil, p.place(err)
@@ -31,6 +34,7 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 		return nil, p.place(err)
 	}
 	g.prefer = opt.Prefer
+	g.maxOut, g.maxLoss = p.Limits.MaxOutputImpedance, p.Limits.MaxLossDB
 	g.priority = p.Priority
 	vars, err := p.variables(base, s)
 	if err != nil {
@@ -154,6 +158,9 @@ const (
 	// (Result.AtLimit); with every range widened a hundredfold they
 	// meet the targets (Result.Widened is that search).
 	CauseRange = "range"
+	// CauseLimit: the chosen parts meet the targets only by breaking a
+	// limit (Result.Limits says which).
+	CauseLimit = "limit"
 )
 
 // cause says why res misses, "" when it does not.
@@ -166,6 +173,8 @@ func cause(res *Result) string {
 		return CauseMaxChanges
 	case helps(res.Freed):
 		return CauseFree
+	case res.Feasible && !res.LimitsMet():
+		return CauseLimit
 	case res.Widened != nil && res.Widened.Feasible:
 		return CauseRange
 	case res.Feasible:
@@ -614,5 +623,38 @@ func misses(e *evaluator, vals []float64, tol Tolerance) int {
 			n++
 		}
 	}
+	if e.overLimits(&m) > 0 {
+		n++
+	}
 	return n
+}
+
+// apply checks the limits and raises the capacitor range to the smallest
+// capacitor allowed.
+func (l *Limits) apply(s *sets) error {
+	if !(l.MaxOutputImpedance >= 0) || math.IsInf(l.MaxOutputImpedance, 0) {
+		return fieldErrorf("limits.max_output_impedance", "%v Ω: give a positive impedance, such as 10k, or leave it out", l.MaxOutputImpedance)
+	}
+	if !(l.MaxLossDB >= 0) || math.IsInf(l.MaxLossDB, 0) {
+		return fieldErrorf("limits.max_loss_db", "%v dB: give the largest loss at 1 kHz as a positive number of dB, such as 20, or leave it out", l.MaxLossDB)
+	}
+	minC := DefaultMinCapacitor
+	if l.MinCapacitor != nil {
+		minC = *l.MinCapacitor
+		if !(minC > 0) || math.IsInf(minC, 0) {
+			return fieldErrorf("limits.min_capacitor", "%v F: give a positive capacitance, such as 100p", minC)
+		}
+	}
+	if minC > s.capRange[1] {
+		return fieldErrorf("limits.min_capacitor", "%sF is above the capacitor range's top (%sF): lower the limit or raise parts.capacitor_range",
+			eseries.Format(minC), eseries.Format(s.capRange[1]))
+	}
+	if minC > s.capRange[0] {
+		s.capRange[0] = minC
+		if _, err := eseries.SnapTo(eseries.Range(s.caps, minC, s.capRange[1]), minC); err != nil {
+			return fieldErrorf("limits.min_capacitor", "no capacitor of %s lies between %sF and %sF", s.capName, eseries.Format(minC), eseries.Format(s.capRange[1]))
+		}
+		s.caps = eseries.Range(s.caps, minC, s.capRange[1])
+	}
+	return nil
 }

@@ -119,6 +119,9 @@ func (w *walker) judge(c *candidate, errs []float64, gain float64) {
 		worst = math.Max(worst, math.Abs(f))
 		ss += f * f
 	}
+	if g := &w.e.goal; g.maxLoss > 0 && -gain > g.maxLoss {
+		c.misses++
+	}
 	c.close = worst*worst + ss/float64(max(1, len(errs)))
 	if math.IsNaN(c.close) {
 		c.close = math.Inf(1)
@@ -162,6 +165,9 @@ func (w *walker) exact(vals []float64) candidate {
 	w.judge(&c, errs[:n], m.Gain1kDB)
 	if math.IsInf(e.worst(&m), 1) {
 		c.misses, c.close = w.nt+1, math.Inf(1)
+	}
+	if e.goal.maxOut > 0 && m.OutputOhm > e.goal.maxOut {
+		c.misses++
 	}
 	w.best = append(w.best, c)
 	slices.SortStableFunc(w.best, func(a, b candidate) int {

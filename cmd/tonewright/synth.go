@@ -30,6 +30,7 @@ type synthFlags struct {
 	from, free                          string
 	maxChanges                          int
 	prefer, priority                    string
+	maxOut, minCap, maxLoss             string
 	out, plot                           string
 	json                                bool
 	seed                                uint64
@@ -90,6 +91,9 @@ design is still reported and written).`,
 	fl.BoolVar(&f.json, "json", false, "print targets, ideal and chosen designs and the analysis as JSON")
 	fl.Uint64Var(&f.seed, "seed", 0, "seed of the search's random starts")
 	fl.StringVar(&f.prefer, "prefer", "closest", "among the designs within tolerance: closest (figures nearest the targets) or loss (least loss at 1 kHz)")
+	fl.StringVar(&f.maxOut, "max-output-impedance", "", "limit: |Z| looking back into the output at 1 kHz (knob at --at), e.g. 10k")
+	fl.StringVar(&f.minCap, "min-capacitor", "", "limit: the smallest capacitor chosen (default 100p)")
+	fl.StringVar(&f.maxLoss, "max-loss", "", "limit: the insertion loss at 1 kHz (knob 0.5) in dB, e.g. 20")
 	fl.StringVar(&f.priority, "priority", "", "targets kept first when they cannot all be met, e.g. hz+corner,depth,balance (the default)")
 	return c
 }
@@ -368,6 +372,34 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 			return usageErrorf("--free: no part named: give part names separated by commas, e.g. lowpass.c,highpass.c")
 		}
 	}
+	if set("max-output-impedance") {
+		v, err := flagValue("max-output-impedance", f.maxOut, "Ω")
+		if err != nil {
+			return err
+		}
+		if !(v > 0) {
+			return usageErrorf("--max-output-impedance %q: give a positive impedance, e.g. 10k", f.maxOut)
+		}
+		p.Limits.MaxOutputImpedance = v
+	}
+	if set("min-capacitor") {
+		v, err := flagValue("min-capacitor", f.minCap, "F")
+		if err != nil {
+			return err
+		}
+		if !(v > 0) {
+			return usageErrorf("--min-capacitor %q: give a positive capacitance, e.g. 100p", f.minCap)
+		}
+		p.Limits.MinCapacitor = &v
+	}
+	if v, e := number("max-loss", f.maxLoss); e != nil {
+		return e
+	} else if v != nil {
+		if !(*v > 0) {
+			return usageErrorf("--max-loss %s: give the largest loss at 1 kHz in dB, a positive number, e.g. 20", f.maxLoss)
+		}
+		p.Limits.MaxLossDB = *v
+	}
 	if set("priority") {
 		pr, err := synth.ParsePriority(f.priority)
 		if err != nil {
@@ -385,7 +417,7 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 }
 
 var flagExample = map[string]string{
-	"scoop-hz": "800 or 1.2k", "corner": "5k", "depth": "-10", "balance": "0 or +2", "at": "0.5",
+	"scoop-hz": "800 or 1.2k", "corner": "5k", "max-loss": "20", "depth": "-10", "balance": "0 or +2", "at": "0.5",
 }
 
 // flagSet reads a series name or a comma list of values.
@@ -471,6 +503,13 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 	fmt.Fprintf(w, "tolerances: ideal parts %.1f %% and %.1f dB, chosen parts %.0f %% and %.0f dB (* marks a miss)\n",
 		100*synth.IdealTolerance.Freq, synth.IdealTolerance.Level, 100*synth.PartsTolerance.Freq, synth.PartsTolerance.Level)
 
+	for _, l := range res.Limits {
+		mark := ""
+		if !l.Met {
+			mark = " *"
+		}
+		fmt.Fprintf(w, "limit %s (%s): at most %s; ideal %s, chosen %s%s\n", l.Name, l.Key, limitFigure(l.Unit, l.Limit), limitFigure(l.Unit, l.Ideal), limitFigure(l.Unit, l.Achieved), mark)
+	}
 	if res.Prefer == "loss" {
 		fmt.Fprintln(w, "chosen: of the designs within tolerance, the one of least loss at 1 kHz (--prefer loss)")
 	} else {
@@ -525,6 +564,8 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 			}
 		case synth.CauseRange:
 			fmt.Fprintf(w, "%s\n", rangeCause(res))
+		case synth.CauseLimit:
+			fmt.Fprintf(w, "%s\n", limitBreak(res))
 		default:
 			if held := heldParts(res); len(held) > 0 {
 				fmt.Fprintf(w, "the ideal values of the free parts miss too: with %s held as they are (--free), no design within the tolerance was found;\n", strings.Join(held, ", "))
@@ -672,6 +713,9 @@ func unmetMessage(res *synth.Result) string {
 		}
 	}
 	msg := "targets not met: " + strings.Join(missed, ", ")
+	if len(missed) == 0 {
+		msg = "limits broken"
+	}
 	switch res.Cause {
 	case synth.CauseMaxChanges:
 		msg += " (" + limitCause(res)
@@ -697,6 +741,8 @@ func unmetMessage(res *synth.Result) string {
 		msg += ")"
 	case synth.CauseRange:
 		msg += " (" + rangeCause(res) + ")"
+	case synth.CauseLimit:
+		msg += " (" + limitBreak(res) + ")"
 	default:
 		if held := heldParts(res); len(held) > 0 {
 			msg += " (no design within the tolerance found with " + strings.Join(held, ", ") + " held by --free)"
@@ -840,4 +886,23 @@ func plotSynth(res *synth.Result, path string, inputs ...string) error {
 		b.Range.To = math.Min(*t.CornerHz*1.5, 10*d.Band.To)
 	}
 	return b.render(path, inputs...)
+}
+
+// limitFigure prints a limit's figure in its unit.
+func limitFigure(unit string, v float64) string {
+	if unit == "dB" {
+		return fmt.Sprintf("%.1f dB", v)
+	}
+	return withUnit(v, 3, unit)
+}
+
+// limitBreak names the limits the design breaks.
+func limitBreak(res *synth.Result) string {
+	var names []string
+	for _, l := range res.Limits {
+		if !l.Met {
+			names = append(names, fmt.Sprintf("%s %s over %s (%s)", l.Name, limitFigure(l.Unit, l.Achieved), limitFigure(l.Unit, l.Limit), l.Key))
+		}
+	}
+	return "no design found meets the targets within the limits; the nearest breaks " + strings.Join(names, ", ")
 }
