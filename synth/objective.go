@@ -82,6 +82,8 @@ type evaluator struct {
 	chain networks.Chain
 	level networks.Level
 	k     networks.Compiled
+	knob  string             // the knob the targets are measured along, for a non-blend design
+	gen   networks.Evaluator // the last compiled response of a non-blend design; nil for the blend form
 	evals int
 	// weights, when set, weigh the targets' errors by priority in the
 	// cost (see priorityWeights); nil: every target alike.
@@ -92,12 +94,52 @@ type evaluator struct {
 
 func newEvaluator(d *networks.Design, g goal) *evaluator {
 	e := &evaluator{d: d, goal: g, meter: networks.NewMeter(d.Band)}
+	if d.Tone.Network != networks.BlendNetwork {
+		e.knob = sweptKnob(d)
+	}
 	return e
 }
 
-// compile builds the working design's chain at blend position p into e.k.
+// sweptKnob is the knob a non-blend design's targets are measured along:
+// the design's swept knob, else its first knob ("" when it has none).
+func sweptKnob(d *networks.Design) string {
+	if k := d.SweptKnob(); k != "" {
+		return k
+	}
+	if ks := d.KnobNames(); len(ks) > 0 {
+		return ks[0]
+	}
+	return ""
+}
+
+// resp is the response compiled last.
+func (e *evaluator) resp() networks.Response {
+	if e.gen != nil {
+		return e.gen
+	}
+	return &e.k
+}
+
+// compile builds the working design's response with its knob at position
+// p: for the blend form the chain into e.k (no allocation), for any other
+// network d.Compile at the design's own setting with the knob moved.
 func (e *evaluator) compile(p float64) {
 	d := e.d
+	if d.Tone.Network != networks.BlendNetwork {
+		over := map[string]float64{}
+		if e.knob != "" {
+			over[e.knob] = p
+		}
+		s, err := d.Setting(over)
+		if err == nil {
+			e.gen, err = d.Compile(s)
+		}
+		if err != nil {
+			e.gen = flat{}
+		}
+		return
+	}
+	e.gen = nil
 	c := &e.chain
 	c.Source = d.Source
 	c.Blend = networks.Blend{Lowpass: d.Tone.Lowpass, Highpass: d.Tone.Highpass,
@@ -127,23 +169,32 @@ func (e *evaluator) measure(m *Metrics) {
 		f = math.Sqrt(e.d.Band.From * e.d.Band.To)
 	}
 	e.compile(g.at)
-	m.Scoop, m.ScoopFound = e.meter.ScoopOrLevelsAt(&e.k, f)
+	m.Scoop, m.ScoopFound = e.meter.ScoopOrLevelsAt(e.resp(), f)
 	if g.maxOut > 0 {
-		m.OutputOhm = cmplx.Abs(e.k.OutputImpedance(1000))
+		if e.gen == nil {
+			m.OutputOhm = cmplx.Abs(e.k.OutputImpedance(1000))
+		} else {
+			m.OutputOhm = math.Inf(1)
+			if s, err := e.d.Setting(map[string]float64{e.knob: g.at}); err == nil {
+				if _, out, err := e.d.Impedances(s, 1000); err == nil {
+					m.OutputOhm = out
+				}
+			}
+		}
 	}
 	if g.at == 0.5 {
-		m.Gain1kDB = networks.Gain1k(&e.k)
+		m.Gain1kDB = networks.Gain1k(e.resp())
 	}
 	if g.at != 1 {
 		e.compile(1)
 	}
-	m.CornerHz, m.CornerFound = e.meter.Corner(&e.k)
+	m.CornerHz, m.CornerFound = e.meter.Corner(e.resp())
 	if !m.CornerFound {
 		m.CornerHz = e.cornerSurrogate()
 	}
 	if g.at != 0.5 {
 		e.compile(0.5)
-		m.Gain1kDB = networks.Gain1k(&e.k)
+		m.Gain1kDB = networks.Gain1k(e.resp())
 	}
 }
 
@@ -154,7 +205,8 @@ func (e *evaluator) measure(m *Metrics) {
 func (e *evaluator) cornerSurrogate() float64 {
 	b := e.d.Band
 	top := 10 * b.To
-	drop := e.k.GainDB(math.Sqrt(b.From*b.To)) - e.k.GainDB(top)
+	r := e.resp()
+	drop := r.GainDB(math.Sqrt(b.From*b.To)) - r.GainDB(top)
 	return top * math.Exp(0.1*math.Max(0, 3-drop))
 }
 
@@ -332,3 +384,11 @@ func (e *evaluator) overLimits(m *Metrics) float64 {
 	}
 	return over
 }
+
+// flat is the response of a design that cannot be compiled (a part value
+// the solver refuses): no gain at any frequency, so no figure is found
+// and the search moves away.
+type flat struct{}
+
+func (flat) GainDB(float64) float64      { return math.Inf(-1) }
+func (flat) Transfer(float64) complex128 { return 0 }

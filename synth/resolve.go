@@ -102,17 +102,21 @@ func (p *Problem) goal(d *networks.Design) (goal, error) {
 		// sections hold placeholder values.
 		from := p.From
 		m := networks.NewMeter(from.Band)
-		c := from.Chain(g.at)
-		k := c.Compile()
-		s, found := m.Scoop(k)
+		fe := newEvaluator(from, g)
+		if from.Tone.Network != networks.BlendNetwork && fe.knob == "" && scoopGiven {
+			return g, fieldErrorf("targets.scoop.at", "the design %s has no knob to measure the scoop along", designName(d))
+		}
+		fe.compile(g.at)
+		s, found := m.Scoop(fe.resp())
 		if found {
 			g.scoop, g.hz, g.depth, g.balance = true, s.Hz, s.DepthDB, s.BalanceDB
 		} else if scoopGiven && (t.ScoopHz == nil || t.DepthDB == nil) {
 			return g, fieldErrorf("targets.scoop", "the design %s has no scoop at knob %v to keep: give both the frequency and the depth",
 				designName(d), g.at)
 		}
-		if hz := networks.CornerOf(from, m); hz != nil {
-			g.corner, g.cornerHz = true, *hz
+		fe.compile(1)
+		if hz, ok := m.Corner(fe.resp()); ok {
+			g.corner, g.cornerHz = true, hz
 		}
 	} else {
 		if t.ScoopHz == nil || t.DepthDB == nil {

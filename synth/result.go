@@ -94,10 +94,11 @@ func (r *Result) LimitsMet() bool {
 
 // AtLimit is an ideal value at a limit of its range.
 type AtLimit struct {
-	Part  string  `json:"part"`
-	Value float64 `json:"value"`
-	Limit string  `json:"limit"` // "low", "high", or "pinned" (a range of one value)
-	Key   string  `json:"key"`   // the targets-file key of the range
+	Kind  networks.PartKind `json:"-"`
+	Part  string            `json:"part"`
+	Value float64           `json:"value"`
+	Limit string            `json:"limit"` // "low", "high", or "pinned" (a range of one value)
+	Key   string            `json:"key"`   // the targets-file key of the range
 }
 
 // Conflict is a target the ideal parts miss: the nearest figure found
@@ -142,10 +143,11 @@ type Check struct {
 
 // Change is a part a re-voicing swaps.
 type Change struct {
-	Part string  `json:"part"`
-	Role string  `json:"role"`
-	From float64 `json:"from"` // 0 for a part the original design did not have
-	To   float64 `json:"to"`
+	Kind networks.PartKind `json:"-"`
+	Part string            `json:"part"`
+	Role string            `json:"role"`
+	From float64           `json:"from"` // 0 for a part the original design did not have
+	To   float64           `json:"to"`
 }
 
 func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, evals int) *Result {
@@ -181,7 +183,7 @@ func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, e
 		if orig != nil {
 			c.Original = orig[pt.Name]
 			if !same(c.Chosen, c.Original) && pt.Name != "level" {
-				res.Changes = append(res.Changes, Change{Part: pt.Name, Role: pt.Role, From: c.Original, To: c.Chosen})
+				res.Changes = append(res.Changes, Change{Part: pt.Name, Role: pt.Role, From: c.Original, To: c.Chosen, Kind: pt.Kind})
 			}
 		}
 		res.Parts = append(res.Parts, c)

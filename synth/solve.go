@@ -218,11 +218,11 @@ func atLimits(r *run, s *sets) []AtLimit {
 		}
 		switch {
 		case !(v.lo < v.hi):
-			out = append(out, AtLimit{Part: v.name, Value: exact(v.lo), Limit: "pinned", Key: key[v.kind]})
+			out = append(out, AtLimit{Kind: v.kind, Part: v.name, Value: exact(v.lo), Limit: "pinned", Key: key[v.kind]})
 		case x <= v.lo+1e-3:
-			out = append(out, AtLimit{Part: v.name, Value: exact(v.lo), Limit: "low", Key: key[v.kind]})
+			out = append(out, AtLimit{Kind: v.kind, Part: v.name, Value: exact(v.lo), Limit: "low", Key: key[v.kind]})
 		case x >= v.hi-1e-3:
-			out = append(out, AtLimit{Part: v.name, Value: exact(v.hi), Limit: "high", Key: key[v.kind]})
+			out = append(out, AtLimit{Kind: v.kind, Part: v.name, Value: exact(v.hi), Limit: "high", Key: key[v.kind]})
 		}
 	}
 	return out

@@ -204,7 +204,7 @@ func TestRevoiceOneCapacitor(t *testing.T) {
 	if !r.Met {
 		t.Errorf("not met: %+v", r.Checks)
 	}
-	want := []Change{{Part: "lowpass.c", Role: "blend low-pass leg C", From: 10e-9, To: 15e-9}}
+	want := []Change{{Part: "lowpass.c", Role: "blend low-pass leg C", From: 10e-9, To: 15e-9, Kind: networks.PartCapacitor}}
 	if !reflect.DeepEqual(r.Changes, want) {
 		t.Errorf("changes %+v, want %+v", r.Changes, want)
 	}

@@ -457,10 +457,7 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 		fmt.Fprintln(tw, "part\trole\tideal\tchosen\tfrom\t")
 	}
 	for _, c := range res.Parts {
-		unit := "Ω"
-		if c.Kind == networks.PartCapacitor {
-			unit = "F"
-		}
+		unit := kindUnit(c.Kind)
 		ideal := withUnit(c.Ideal, 4, unit)
 		if !c.Free {
 			ideal = "—"
@@ -586,10 +583,7 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 
 // changeLine is one swap: part (role): from → to.
 func changeLine(ch synth.Change) string {
-	unit := "Ω"
-	if strings.HasSuffix(ch.Part, ".c") {
-		unit = "F"
-	}
+	unit := kindUnit(ch.Kind)
 	was := "(new)"
 	if ch.From > 0 {
 		was = withUnit(ch.From, 3, unit)
@@ -780,10 +774,7 @@ func conflictLine(c synth.Conflict) string {
 
 // atLimitLine flags an ideal value at a limit of its range.
 func atLimitLine(l synth.AtLimit) string {
-	unit := "Ω"
-	if strings.HasSuffix(l.Part, ".c") {
-		unit = "F"
-	}
+	unit := kindUnit(l.Kind)
 	switch l.Limit {
 	case "pinned":
 		return fmt.Sprintf("%s is pinned at %s by %s (a range of one value)", l.Part, withUnit(l.Value, 3, unit), l.Key)
@@ -798,7 +789,7 @@ func atLimitLine(l synth.AtLimit) string {
 func rangeCause(res *synth.Result) string {
 	var parts []string
 	for _, l := range res.AtLimit {
-		parts = append(parts, fmt.Sprintf("%s at %s (%s)", l.Part, withUnit(l.Value, 3, unitOf(l.Part)), l.Key))
+		parts = append(parts, fmt.Sprintf("%s at %s (%s)", l.Part, withUnit(l.Value, 3, kindUnit(l.Kind)), l.Key))
 	}
 	msg := "the part ranges bind: " + strings.Join(parts, ", ")
 	if w := res.Widened; w != nil && w.Feasible {
@@ -810,7 +801,7 @@ func rangeCause(res *synth.Result) string {
 			}
 			for _, c := range w.Parts {
 				if c.Name == name {
-					need = append(need, fmt.Sprintf("%s %s", l.Part, withUnit(c.Ideal, 3, unitOf(c.Name))))
+					need = append(need, fmt.Sprintf("%s %s", l.Part, withUnit(c.Ideal, 3, kindUnit(c.Kind))))
 				}
 			}
 		}
@@ -836,9 +827,13 @@ func freeCause(res *synth.Result) string {
 	return msg
 }
 
-func unitOf(part string) string {
-	if strings.HasSuffix(part, ".c") {
+// kindUnit is the unit of a part's value.
+func kindUnit(k networks.PartKind) string {
+	switch k {
+	case networks.PartCapacitor:
 		return "F"
+	case networks.PartInductor:
+		return "H"
 	}
 	return "Ω"
 }
@@ -872,8 +867,20 @@ func plotSynth(res *synth.Result, path string, inputs ...string) error {
 		if t.At != nil {
 			at = *t.At
 		}
-		c := d.Chain(at)
-		k := c.Compile()
+		over := map[string]float64{}
+		if kn := d.SweptKnob(); kn != "" {
+			over[kn] = at
+		} else if ks := d.KnobNames(); len(ks) > 0 {
+			over[ks[0]] = at
+		}
+		st, err := d.Setting(over)
+		if err != nil {
+			return err
+		}
+		k, err := d.Compile(st)
+		if err != nil {
+			return err
+		}
 		s := res.Metrics.Scoop
 		shoulders := k.GainDB(s.Hz) - s.DepthDB
 		b.Targets = append(b.Targets, target{Label: fmt.Sprintf("scoop target (knob %s)", posLabel(at)),
