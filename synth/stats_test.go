@@ -86,7 +86,7 @@ func TestStatsReachable(t *testing.T) {
 		{"designs of allowed values, within 0.1 % and 0.02 dB", true, 15, Tolerance{Freq: 0.001, Level: 0.02}},
 	} {
 		rng := rand.New(rand.NewPCG(12, 34))
-		hits, feasible, done := 0, 0, 0
+		hits, feasible, met, done := 0, 0, 0, 0
 		for done < c.n {
 			d := randomDesign(rng, c.allowed)
 			if d == nil {
@@ -102,6 +102,9 @@ func TestStatsReachable(t *testing.T) {
 			if r.Feasible {
 				feasible++
 			}
+			if r.Met {
+				met++
+			}
 			ok := within(r, c.tol)
 			if ok {
 				hits++
@@ -116,7 +119,7 @@ func TestStatsReachable(t *testing.T) {
 			}
 			t.Logf("%2d: within %v, feasible %v, worst %.3f %% %.3f dB, %d evals", done, ok, r.Feasible, 100*worstF, worstL, r.Evaluations)
 		}
-		t.Logf("%s: %d of %d; ideal feasible in %d of %d", c.name, hits, c.n, feasible, c.n)
+		t.Logf("%s: %d of %d; within 5 %% and 1 dB in %d; ideal feasible in %d of %d", c.name, hits, c.n, met, feasible, c.n)
 	}
 }
 
