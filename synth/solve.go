@@ -364,9 +364,11 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 		seeds = append([][]float64{e.values(nil)}, extra...)
 	}
 	x, _ := continuous(e, seeds, tune, rng)
-	if fresh {
+	if fresh && g.prefer == LeastLoss {
 		// The second phase: the least loss among the designs that meet
-		// the targets.
+		// the targets. (For the closest design the walk starts from the
+		// first phase's point: the least-loss designs crowd the ends of
+		// the part ranges, where few allowed values lie near.)
 		x = lean(e, x, logValues(freshSeeds(e.d, g, s, leanSectionRatios)))
 	}
 	// Before a verdict that the ideal parts miss, many more starts.
