@@ -31,13 +31,13 @@ import (
 // 1 kHz, knob 0.5).
 const (
 	walkLevel     = 0.35 // log distance between anchor levels of a free resistor or capacitor (×1.6)
-	walkLevels    = 2    // anchor levels either side of the ideal value
+	walkLevels    = 3    // anchor levels either side of the ideal value
 	walkPotFactor = 5.0  // pots within this factor of the ideal pot are swept
 	walkPots      = 6    // at most this many pots, the nearest
 	walkMeasure   = 48   // predicted combinations measured exactly
 	walkReanchor  = 8    // measured combinations re-anchored
 	walkRemeasure = 12   // and combinations measured about each
-	walkAnchorMax = 160  // anchors at most
+	walkAnchorMax = 300  // anchors at most
 	walkDirect    = 48   // of the predicted, measured as they are
 	walkSolve     = 24   // free combinations of the best predicted solved exactly
 )
