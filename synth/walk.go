@@ -70,6 +70,7 @@ func (p Prefer) String() string {
 // measured) standing.
 type candidate struct {
 	vals   []float64
+	key    string // key(vals), once known
 	misses int
 	close  float64 // closeness: worst² + mean of squares, in FineTolerance units
 	gain   float64
@@ -305,8 +306,8 @@ func (w *walker) predictAround(xa []float64, freeVals [][]float64, wide bool, ke
 				w.judge(&c, pred, gain)
 				w.predictedCount++
 				if len(top) < keep || w.better(&c, &top[len(top)-1]) {
-					if !w.seen[key(vals)] {
-						c.vals = slices.Clone(vals)
+					if k := key(vals); !w.seen[k] {
+						c.vals, c.key = slices.Clone(vals), k
 						top = insertCandidate(w, top, c, keep)
 					}
 				}
@@ -343,9 +344,12 @@ func (w *walker) predictAround(xa []float64, freeVals [][]float64, wide bool, ke
 // insertCandidate keeps top sorted, best first, at most keep long, without
 // two equal combinations.
 func insertCandidate(w *walker, top []candidate, c candidate, keep int) []candidate {
-	k := key(c.vals)
+	if c.key == "" {
+		c.key = key(c.vals)
+	}
+	k := c.key
 	for i := range top {
-		if key(top[i].vals) == k {
+		if top[i].key == k {
 			if w.better(&c, &top[i]) {
 				top = slices.Delete(top, i, i+1)
 				break
