@@ -57,3 +57,47 @@ func TestRevoiceNetlist(t *testing.T) {
 		t.Errorf("met %v, changes %+v: want clp 12 nF → 18 nF", r.Met, r.Changes)
 	}
 }
+
+// The list form: figures at their own knob settings. The targets are the
+// moved netlist's scoop at blend 0.5, its corner at blend 1 and its gain
+// at 100 Hz at blend 0; with the low-pass leg's parts free the search
+// brings the capacitor back to 18 nF within the tolerance.
+func TestRevoiceListForm(t *testing.T) {
+	if testing.Short() {
+		t.Skip("a re-voicing through the nodal solver")
+	}
+	moved := blendNetlist(18e-9)
+	m := networks.NewMeter(moved.Band)
+	at := func(p float64) networks.Evaluator {
+		s, err := moved.Setting(map[string]float64{"blend": p})
+		if err != nil {
+			t.Fatal(err)
+		}
+		ev, err := moved.Compile(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return ev
+	}
+	s, _ := m.Scoop(at(0.5))
+	corner, _ := m.Corner(at(1))
+	items := []Item{
+		{Knobs: map[string]float64{"blend": 0.5}, Kind: ItemScoop, Hz: s.Hz, DepthDB: s.DepthDB, BalanceDB: ptr(s.BalanceDB)},
+		{Knobs: map[string]float64{"blend": 1}, Kind: ItemCorner, Hz: corner},
+		{Knobs: map[string]float64{"blend": 0}, Kind: ItemGain, Hz: 100, DB: at(0).GainDB(100)},
+	}
+	r, err := Solve(&Problem{Items: items, From: blendNetlist(12e-9), Free: []string{"clp"}}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !r.Met || len(r.Checks) != 5 || len(r.Changes) != 1 || !same(r.Changes[0].To, 18e-9) {
+		t.Errorf("met %v, %d checks, changes %+v: want clp → 18 nF", r.Met, len(r.Checks), r.Changes)
+	}
+	if _, err := Solve(&Problem{Items: items}, Options{}); err == nil {
+		t.Errorf("a fresh synthesis took the list form")
+	}
+	bad := []Item{{Knobs: map[string]float64{"treble": 1}, Kind: ItemCorner, Hz: 5e3}}
+	if _, err := Solve(&Problem{Items: bad, From: blendNetlist(12e-9)}, Options{}); err == nil {
+		t.Errorf("an unknown knob was accepted")
+	}
+}

@@ -21,6 +21,12 @@ type Metrics struct {
 	// knob at the scoop's position; measured only with a
 	// max_output_impedance limit, else 0.
 	OutputOhm float64 `json:"output_impedance_ohm,omitempty"`
+
+	// The list form's figures, one per row (see itemRows), and whether
+	// each was found.
+	Figures [maxTargets]float64 `json:"-"`
+	Found   [maxTargets]bool    `json:"-"`
+	nfig    int
 }
 
 // goal is a resolved set of targets.
@@ -33,6 +39,8 @@ type goal struct {
 	maxOut, maxLoss    float64    // limits: output impedance (Ω) and loss (dB); 0: none
 	prefer             Prefer     // which design of those within tolerance
 	priority           [][]string // which targets give way first; nil: DefaultPriority
+	items              []Item     // the list form; nil: the mapping form above
+	rows               []row      // the list form's figures
 }
 
 // tieBreak weighs the insertion loss at 1 kHz (dB) against the squared
@@ -164,6 +172,10 @@ func (e *evaluator) measure(m *Metrics) {
 		e.progress()
 	}
 	g := &e.goal
+	if len(g.items) > 0 {
+		e.measureItems(m)
+		return
+	}
 	f := g.hz
 	if !g.scoop {
 		f = math.Sqrt(e.d.Band.From * e.d.Band.To)
@@ -215,6 +227,16 @@ func (e *evaluator) cornerSurrogate() float64 {
 func (e *evaluator) cost(m *Metrics) float64 {
 	g := &e.goal
 	c := limitPenalty * e.overLimits(m)
+	if len(g.items) > 0 {
+		var errs [maxTargets]float64
+		for k, x := range errs[:e.itemErrors(m, &errs)] {
+			c += loss(x)
+			if !m.Found[k] {
+				c += noScoop
+			}
+		}
+		return c - tieBreak*m.Gain1kDB
+	}
 	if g.scoop && !m.ScoopFound {
 		// The levels at the target frequency keep a slope; the penalty
 		// keeps a curve without a dip from ever beating one with it.
@@ -244,8 +266,9 @@ func (e *evaluator) cost(m *Metrics) float64 {
 }
 
 // maxTargets is the number of figures a synthesis can aim at: the scoop's
-// frequency, depth and balance, and the corner.
-const maxTargets = 4
+// frequency, depth and balance, and the corner, or the rows of the list
+// form.
+const maxTargets = 16
 
 // targetErrors writes the error of each target in units of IdealTolerance to
 // dst, in the order scoop frequency, depth, balance, corner (those that
@@ -254,6 +277,9 @@ const maxTargets = 4
 // same.
 func (e *evaluator) targetErrors(m *Metrics, dst *[maxTargets]float64) int {
 	g := &e.goal
+	if len(g.items) > 0 {
+		return e.itemErrors(m, dst)
+	}
 	n := 0
 	if g.scoop {
 		dst[0] = math.Log(m.Scoop.Hz/g.hz) / IdealTolerance.Freq
@@ -273,6 +299,11 @@ func (e *evaluator) targetErrors(m *Metrics, dst *[maxTargets]float64) int {
 func (e *evaluator) worst(m *Metrics) float64 {
 	if e.goal.scoop && !m.ScoopFound || e.goal.corner && !m.CornerFound {
 		return math.Inf(1)
+	}
+	for k := range e.goal.rows {
+		if !m.Found[k] {
+			return math.Inf(1)
+		}
 	}
 	var errs [maxTargets]float64
 	w := 0.0

@@ -38,6 +38,9 @@ type Problem struct {
 	Band *networks.Band // nil: networks.DefaultBand, or From's
 
 	Targets Targets
+	// Items is the list form of targets (each figure at its own knob
+	// setting), for a re-voicing; nil: Targets.
+	Items []Item
 
 	Source  *networks.Source       // nil: an ideal source (0 Ω), or From's
 	Load    *networks.Load         // nil: networks.DefaultLoad, or From's

@@ -89,6 +89,9 @@ func ParsePriority(s string) ([][]string, error) {
 // targetNames are the priority names of the goal's targets, in the order
 // of evaluator.targetErrors.
 func (g goal) targetNames() []string {
+	if len(g.items) > 0 {
+		return g.itemPriority()
+	}
 	var out []string
 	if g.scoop {
 		out = append(out, TargetHz, TargetDepth, TargetBalance)

@@ -87,6 +87,12 @@ func (p *Problem) design() (*networks.Design, error) {
 // synthesis, the design's current figures when re-voicing.
 func (p *Problem) goal(d *networks.Design) (goal, error) {
 	t := p.Targets
+	if len(p.Items) > 0 {
+		if t.ScoopHz != nil || t.DepthDB != nil || t.BalanceDB != nil || t.CornerHz != nil || t.At != nil {
+			return goal{}, fieldErrorf("targets", "the targets are given as a list: give the scoop and corner there too, not as flags (--scoop-hz, --depth, --balance, --at, --corner)")
+		}
+		return p.resolveItems(d)
+	}
 	g := goal{at: DefaultAt}
 	if t.At != nil {
 		g.at = *t.At

@@ -241,6 +241,9 @@ func (r *run) build(base *networks.Design, g goal, vals []float64) (*networks.De
 
 // checks compares the metrics with the goal.
 func checks(g goal, ideal, got *Metrics, tol Tolerance) []Check {
+	if len(g.items) > 0 {
+		return itemChecks(g, ideal, got, tol)
+	}
 	var cs []Check
 	freq := func(name, key string, want, a float64, af bool, b float64, bf bool) {
 		c := Check{Name: name, Key: key, Unit: "Hz", Wanted: want, Ideal: a, IdealFound: af, Achieved: b, Found: bf}

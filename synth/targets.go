@@ -119,6 +119,11 @@ func ParseTargets(data []byte, name string) (*Problem, error) {
 			return nil
 		}},
 		networks.Key{Name: "targets", Decode: func(n *yaml.Node, path string) error {
+			if n.Kind == yaml.SequenceNode {
+				items, err := parseItems(dec, n, path)
+				p.Items = items
+				return err
+			}
 			return dec.Map(n, path,
 				networks.Key{Name: "scoop", Decode: func(n *yaml.Node, path string) error {
 					return dec.Map(n, path,

@@ -483,7 +483,9 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 	fmt.Fprintln(tw, "target\twanted\tideal parts\terror\tchosen parts\terror\t")
 	for _, c := range res.Checks {
 		name := c.Name
-		if strings.HasPrefix(name, "scoop") {
+		if strings.HasPrefix(c.Key, "targets[") {
+			// The list form: the name carries its knob setting.
+		} else if strings.HasPrefix(name, "scoop") {
 			name += " (knob " + posLabel(at) + ")"
 		} else {
 			name += " (knob 1)"
