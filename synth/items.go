@@ -34,6 +34,7 @@ const (
 	ItemLowCorner = "low_corner_hz"
 	ItemGain      = "gain_db"
 	ItemPeak      = "peak"
+	ItemCurve     = "curve" // a whole curve (Problem.Curve), its RMS error
 )
 
 // Item is one entry of the list form: a figure at a knob setting.
@@ -46,6 +47,9 @@ type Item struct {
 	BalanceDB *float64 // scoop balance; nil: not a target
 	HeightDB  float64  // peak height
 	DB        float64  // gain at Hz
+
+	CurveHz, CurveDB []float64 // a curve's points
+	Label            string    // a curve column's setting label
 }
 
 // rows is the number of errors an item gives.
@@ -114,6 +118,8 @@ func itemRows(items []Item) []row {
 			out = append(out, row{i, "corner", "Hz", "corner" + at, key + "corner_hz", it.Hz, TargetCorner})
 		case ItemLowCorner:
 			out = append(out, row{i, "low corner", "Hz", "low corner" + at, key + "low_corner_hz", it.Hz, TargetCorner})
+		case ItemCurve:
+			out = append(out, row{i, "rms", "dB", "curve RMS error" + at, "targets.curve", 0, TargetDepth})
 		case ItemGain:
 			out = append(out, row{i, "gain", "dB", fmt.Sprintf("gain at %s Hz", eseries.Format(it.Hz)) + at, key + "gain_db.db", it.DB, TargetDepth})
 		}
@@ -172,6 +178,11 @@ func (e *evaluator) measureItems(m *Metrics) {
 		case ItemGain:
 			m.Figures[k], m.Found[k] = r.GainDB(it.Hz), true
 			k++
+		case ItemCurve:
+			rms, worst, off := curveResidual(it, r, e.d.Band, g.fitLevel)
+			m.Figures[k], m.Found[k] = rms, !math.IsInf(rms, 1)
+			m.Worst[k], m.Offset[k] = worst, off
+			k++
 		}
 	}
 	// The insertion loss at 1 kHz at the design's own setting.
@@ -227,14 +238,17 @@ func itemChecks(g goal, ideal, got *Metrics, tol Tolerance) []Check {
 // resolveItems checks the listed targets against the design (knob names
 // and positions, frequencies the figures can measure) and returns the
 // goal for them.
-func (p *Problem) resolveItems(d *networks.Design) (goal, error) {
-	g := goal{at: DefaultAt, items: p.Items}
+func (p *Problem) resolveItems(d *networks.Design, items []Item) (goal, error) {
+	g := goal{at: DefaultAt, items: items, fitLevel: p.FitLevel}
 	if p.From == nil {
 		return g, fieldErrorf("targets", "the list form of targets re-voices a design: give it with --from DESIGN.yaml (a fresh synthesis takes the mapping form: targets: {scoop: {...}, corner_hz: ...})")
 	}
 	b := d.Band
-	for i, it := range p.Items {
+	for i, it := range items {
 		key := fmt.Sprintf("targets[%d]", i)
+		if it.Kind == ItemCurve {
+			key = "targets.curve"
+		}
 		if _, err := d.Setting(it.Knobs); err != nil {
 			return g, fieldErrorf(key+".knobs", "%v", err)
 		}
@@ -260,7 +274,7 @@ func (p *Problem) resolveItems(d *networks.Design) (goal, error) {
 			}
 		}
 	}
-	g.rows = itemRows(p.Items)
+	g.rows = itemRows(items)
 	if len(g.rows) == 0 {
 		return g, fieldErrorf("targets", "%v: the list is empty", errNoTargets)
 	}
@@ -387,4 +401,14 @@ func (g goal) itemPriority() []string {
 		out[i] = r.priority
 	}
 	return out
+}
+
+// hasCurve reports whether a row is a curve's RMS error.
+func (g goal) hasCurve() bool {
+	for _, r := range g.rows {
+		if r.figure == "rms" {
+			return true
+		}
+	}
+	return false
 }

@@ -1,6 +1,9 @@
 package synth
 
 import (
+	"fmt"
+	"strconv"
+	"strings"
 	"testing"
 
 	"tonewright/networks"
@@ -99,5 +102,49 @@ func TestRevoiceListForm(t *testing.T) {
 	bad := []Item{{Knobs: map[string]float64{"treble": 1}, Kind: ItemCorner, Hz: 5e3}}
 	if _, err := Solve(&Problem{Items: bad, From: blendNetlist(12e-9)}, Options{}); err == nil {
 		t.Errorf("an unknown knob was accepted")
+	}
+}
+
+// A curve made by the analyze CSV of a design is fitted back, to under
+// 0.05 dB RMS at every setting, by the same topology with the parts free:
+// the invented blend netlist with rlp 33 kΩ and clp 18 nF gives the curve;
+// from 27 kΩ and 12 nF with those two free the fit returns them.
+func TestCurveFitBack(t *testing.T) {
+	if testing.Short() {
+		t.Skip("a curve fit through the nodal solver")
+	}
+	target := blendNetlist(18e-9)
+	target.Tone.Parts[0].Value = 33e3
+	// The CSV analyze --csv writes: hz, then db_at_P and deg_at_P per
+	// blend position (here three positions, 60 points per decade).
+	var sb strings.Builder
+	sb.WriteString("hz,db_at_0,deg_at_0,db_at_0.5,deg_at_0.5,db_at_1,deg_at_1\n")
+	for _, f := range networks.LogGrid(20, 20e3, 60) {
+		sb.WriteString(strconv.FormatFloat(f, 'g', 6, 64))
+		for _, p := range []float64{0, 0.5, 1} {
+			s, _ := target.Setting(map[string]float64{"blend": p})
+			ev, err := target.Compile(s)
+			if err != nil {
+				t.Fatal(err)
+			}
+			fmt.Fprintf(&sb, ",%.4f,0", ev.GainDB(f))
+		}
+		sb.WriteString("\n")
+	}
+	c, err := ParseCurve([]byte(sb.String()), "curve.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := Solve(&Problem{Curve: c, From: blendNetlist(12e-9), Free: []string{"rlp", "clp"}}, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(r.Curves) != 3 {
+		t.Fatalf("curves %+v", r.Curves)
+	}
+	for _, cf := range r.Curves {
+		if !(cf.RMSDB < 0.05) {
+			t.Errorf("%s: RMS %.3f dB, worst %.3f dB; want under 0.05 dB RMS (changes %+v)", cf.Setting, cf.RMSDB, cf.WorstDB, r.Changes)
+		}
 	}
 }

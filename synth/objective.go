@@ -26,6 +26,8 @@ type Metrics struct {
 	// each was found.
 	Figures [maxTargets]float64 `json:"-"`
 	Found   [maxTargets]bool    `json:"-"`
+	Worst   [maxTargets]float64 `json:"-"` // a curve's largest difference, dB
+	Offset  [maxTargets]float64 `json:"-"` // a curve's level offset taken out (FitLevel), dB
 	nfig    int
 }
 
@@ -41,6 +43,7 @@ type goal struct {
 	priority           [][]string // which targets give way first; nil: DefaultPriority
 	items              []Item     // the list form; nil: the mapping form above
 	rows               []row      // the list form's figures
+	fitLevel           bool       // curves: an overall level offset goes free
 }
 
 // tieBreak weighs the insertion loss at 1 kHz (dB) against the squared

@@ -41,6 +41,13 @@ type Problem struct {
 	// Items is the list form of targets (each figure at its own knob
 	// setting), for a re-voicing; nil: Targets.
 	Items []Item
+	// Curve is a whole-curve target, for a re-voicing: the RMS dB error
+	// over the band at each of its settings is minimised. CurveKnobs set
+	// the knobs of a measured curve's single db column (nil: the design's
+	// own setting); FitLevel lets an overall level offset go free.
+	Curve      *Curve
+	CurveKnobs map[string]float64
+	FitLevel   bool
 
 	Source  *networks.Source       // nil: an ideal source (0 Ω), or From's
 	Load    *networks.Load         // nil: networks.DefaultLoad, or From's

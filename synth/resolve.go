@@ -87,11 +87,25 @@ func (p *Problem) design() (*networks.Design, error) {
 // synthesis, the design's current figures when re-voicing.
 func (p *Problem) goal(d *networks.Design) (goal, error) {
 	t := p.Targets
-	if len(p.Items) > 0 {
+	if len(p.Items) > 0 || p.Curve != nil {
 		if t.ScoopHz != nil || t.DepthDB != nil || t.BalanceDB != nil || t.CornerHz != nil || t.At != nil {
-			return goal{}, fieldErrorf("targets", "the targets are given as a list: give the scoop and corner there too, not as flags (--scoop-hz, --depth, --balance, --at, --corner)")
+			return goal{}, fieldErrorf("targets", "the targets are given as a list or a curve: give the scoop and corner there too, not as flags (--scoop-hz, --depth, --balance, --at, --corner)")
 		}
-		return p.resolveItems(d)
+		items := slices.Clone(p.Items)
+		if p.Curve != nil {
+			if p.From == nil {
+				return goal{}, fieldErrorf("targets.curve", "a curve target voices a design: give it with --from DESIGN.yaml (its parts named by --free are fitted)")
+			}
+			for _, s := range p.Curve.Settings {
+				if s.Knobs != nil {
+					if _, err := d.Setting(s.Knobs); err != nil {
+						return goal{}, &networks.FieldError{File: p.Curve.File, Line: 1, Key: "db_at_" + s.Label, Err: err}
+					}
+				}
+			}
+			items = append(items, curveItems(p.Curve, d, p.CurveKnobs)...)
+		}
+		return p.resolveItems(d, items)
 	}
 	g := goal{at: DefaultAt}
 	if t.At != nil {

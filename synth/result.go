@@ -63,6 +63,8 @@ type Result struct {
 	// with the nearest figure found while keeping the targets met
 	// (Held), those ranked above it first (Problem.Priority).
 	Conflicts []Conflict `json:"conflicts,omitempty"`
+	// Curves are, for a curve target, the fit at each setting.
+	Curves []CurveFit `json:"curves,omitempty"`
 	// Prefer is how the chosen design was chosen among those within the
 	// tolerance: "closest" or "loss".
 	Prefer string `json:"prefer"`
@@ -99,6 +101,16 @@ type AtLimit struct {
 	Value float64           `json:"value"`
 	Limit string            `json:"limit"` // "low", "high", or "pinned" (a range of one value)
 	Key   string            `json:"key"`   // the targets-file key of the range
+}
+
+// CurveFit is how closely the chosen design follows a target curve at one
+// setting: the RMS and the largest difference over the band, in dB, after
+// the level offset taken out (with Problem.FitLevel; else 0).
+type CurveFit struct {
+	Setting  string  `json:"setting"`
+	RMSDB    float64 `json:"rms_db"`
+	WorstDB  float64 `json:"worst_db"`
+	OffsetDB float64 `json:"offset_db"`
 }
 
 // Conflict is a target the ideal parts miss: the nearest figure found
@@ -209,6 +221,12 @@ func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, e
 		res.Met = res.Met && l.Met
 	}
 	res.Starts, res.Prefer = r.starts, g.prefer.String()
+	for k, rw := range g.rows {
+		if rw.figure == "rms" {
+			res.Curves = append(res.Curves, CurveFit{Setting: g.items[rw.item].label(), RMSDB: res.Metrics.Figures[k],
+				WorstDB: res.Metrics.Worst[k], OffsetDB: res.Metrics.Offset[k]})
+		}
+	}
 	if !res.Feasible {
 		var held []string
 		for _, c := range res.Checks {

@@ -77,7 +77,9 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 			}
 		}
 	}
-	if p.From != nil {
+	if p.From != nil && !g.hasCurve() {
+		// (A curve fit wants the least error, not the fewest swaps
+		// within tolerance.)
 		best = prune(base, g, best, tol)
 	}
 	// A limited re-voicing that misses: would the design meet the targets

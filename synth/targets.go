@@ -31,6 +31,8 @@ func LoadTargets(path string) (*Problem, error) {
 //	targets:
 //	  scoop: {hz: 800, depth_db: -10, balance_db: 0, at: 0.5}
 //	  corner_hz: 5k                      # at knob 1
+//	  curve: voice.csv                   # or a whole curve (re-voicing), as analyze --csv writes it
+//	  fit_level: true                    # a curve's overall level goes free
 //	source: {impedance: 6.8k}            # also series_c
 //	load: {r: 1M, c: 0}                  # r may be open
 //	filters: 2                           # identical RC low-pass sections
@@ -132,7 +134,36 @@ func ParseTargets(data []byte, name string) (*Problem, error) {
 						networks.Key{Name: "balance_db", Decode: number(&t.BalanceDB, anyDB)},
 						networks.Key{Name: "at", Decode: number(&t.At, knob)})
 				}},
-				networks.Key{Name: "corner_hz", Decode: value(&t.CornerHz, positiveHz)})
+				networks.Key{Name: "corner_hz", Decode: value(&t.CornerHz, positiveHz)},
+				networks.Key{Name: "curve", Decode: func(n *yaml.Node, path string) error {
+					f, err := dec.String(n, path)
+					if err != nil {
+						return err
+					}
+					if !filepath.IsAbs(f) {
+						f = filepath.Join(filepath.Dir(name), f)
+					}
+					c, err := LoadCurve(f)
+					if err != nil {
+						return dec.Errorf(n, path, "%v", err)
+					}
+					p.Curve = c
+					return nil
+				}},
+				networks.Key{Name: "fit_level", Decode: func(n *yaml.Node, path string) error {
+					v, err := dec.String(n, path)
+					if err != nil {
+						return err
+					}
+					switch v {
+					case "true":
+						p.FitLevel = true
+					case "false":
+					default:
+						return dec.Errorf(n, path, "%q: give true (an overall level offset goes free) or false", v)
+					}
+					return nil
+				}})
 		}},
 		networks.Key{Name: "source", Decode: func(n *yaml.Node, path string) error {
 			p.Source = &networks.Source{}

@@ -30,6 +30,9 @@ type synthFlags struct {
 	from, free                          string
 	maxChanges                          int
 	prefer, priority                    string
+	curve                               string
+	fitLevel                            bool
+	knobs                               []string
 	maxOut, minCap, maxLoss             string
 	out, plot                           string
 	json                                bool
@@ -91,6 +94,9 @@ design is still reported and written).`,
 	fl.BoolVar(&f.json, "json", false, "print targets, ideal and chosen designs and the analysis as JSON")
 	fl.Uint64Var(&f.seed, "seed", 0, "seed of the search's random starts")
 	fl.StringVar(&f.prefer, "prefer", "closest", "among the designs within tolerance: closest (figures nearest the targets) or loss (least loss at 1 kHz)")
+	fl.StringVar(&f.curve, "curve", "", "re-voicing: fit the whole curve in `FILE.csv` (hz and db_at_SETTING columns as analyze --csv writes them, or hz,db)")
+	fl.BoolVar(&f.fitLevel, "fit-level", false, "curve: let an overall level offset go free (a measured curve's gain is unknown)")
+	fl.StringArrayVar(&f.knobs, "knob", nil, "curve: the knob setting of a measured hz,db curve: `NAME=P` (repeat for more knobs)")
 	fl.StringVar(&f.maxOut, "max-output-impedance", "", "limit: |Z| looking back into the output at 1 kHz (knob at --at), e.g. 10k")
 	fl.StringVar(&f.minCap, "min-capacitor", "", "limit: the smallest capacitor chosen (default 100p)")
 	fl.StringVar(&f.maxLoss, "max-loss", "", "limit: the insertion loss at 1 kHz (knob 0.5) in dB, e.g. 20")
@@ -176,7 +182,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		}
 	}
 	if f.plot != "" {
-		if err := plotSynth(res, f.plot, inputs...); err != nil {
+		if err := plotSynthFor(res, p, f.plot, inputs...); err != nil {
 			return err
 		}
 	}
@@ -400,6 +406,29 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 		}
 		p.Limits.MaxLossDB = *v
 	}
+	if set("curve") {
+		c, err := synth.LoadCurve(f.curve)
+		if err != nil {
+			return badInput(err)
+		}
+		p.Curve = c
+	}
+	if set("fit-level") {
+		p.FitLevel = f.fitLevel
+	}
+	if set("knob") {
+		p.CurveKnobs = map[string]float64{}
+		for _, k := range f.knobs {
+			l, err := networks.ParseKnobFlag(k)
+			if err != nil {
+				return usageErrorf("--knob %v", err)
+			}
+			if len(l.Positions) != 1 {
+				return usageErrorf("--knob %s: a measured curve has one setting: give one position, e.g. treble=0.3", k)
+			}
+			p.CurveKnobs[l.Name] = l.Positions[0]
+		}
+	}
 	if set("priority") {
 		pr, err := synth.ParsePriority(f.priority)
 		if err != nil {
@@ -483,7 +512,7 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 	fmt.Fprintln(tw, "target\twanted\tideal parts\terror\tchosen parts\terror\t")
 	for _, c := range res.Checks {
 		name := c.Name
-		if strings.HasPrefix(c.Key, "targets[") {
+		if strings.HasPrefix(c.Key, "targets[") || c.Key == "targets.curve" {
 			// The list form: the name carries its knob setting.
 		} else if strings.HasPrefix(name, "scoop") {
 			name += " (knob " + posLabel(at) + ")"
@@ -502,6 +531,13 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 	fmt.Fprintf(w, "tolerances: ideal parts %.1f %% and %.1f dB, chosen parts %.0f %% and %.0f dB (* marks a miss)\n",
 		100*synth.IdealTolerance.Freq, synth.IdealTolerance.Level, 100*synth.PartsTolerance.Freq, synth.PartsTolerance.Level)
 
+	for _, c := range res.Curves {
+		line := fmt.Sprintf("curve fit (%s): RMS %.3f dB, worst %.3f dB", c.Setting, c.RMSDB, c.WorstDB)
+		if c.OffsetDB != 0 {
+			line += fmt.Sprintf(", level offset %+.2f dB taken out (--fit-level)", c.OffsetDB)
+		}
+		fmt.Fprintln(w, line)
+	}
 	for _, l := range res.Limits {
 		mark := ""
 		if !l.Met {
@@ -856,12 +892,55 @@ func heldParts(res *synth.Result) []string {
 // targets: the scoop as a cross at the wanted frequency and level on the
 // measured curve's shoulders, the corner as a dashed line.
 func plotSynth(res *synth.Result, path string, inputs ...string) error {
+	return plotSynthFor(res, &synth.Problem{}, path, inputs...)
+}
+
+// plotSynthFor is plotSynth for the problem p: with a curve target, the
+// achieved curves at its settings with the targets dashed.
+func plotSynthFor(res *synth.Result, p *synth.Problem, path string, inputs ...string) error {
 	d := res.Design
 	b := &bode{
 		Title:   "synthesized: " + designTitle(d),
 		Caption: describeDesign(d),
 		Range:   d.Band,
 		Curves:  designCurves(d, atSwept(d, networks.DefaultPositions...), false),
+	}
+	if c := p.Curve; c != nil {
+		// A curve target: the achieved curves at its settings, each with
+		// its target dashed in the same colour (moved by the level
+		// offset taken out, if any).
+		var ss []networks.Setting
+		for _, cs := range c.Settings {
+			over := cs.Knobs
+			switch {
+			case cs.Swept != nil:
+				kn := d.SweptKnob()
+				if kn == "" {
+					kn = networks.BlendKnob
+				}
+				over = map[string]float64{kn: *cs.Swept}
+			case cs.Label == "":
+				over = p.CurveKnobs
+			}
+			st, err := d.Setting(over)
+			if err != nil {
+				return err
+			}
+			ss = append(ss, st)
+		}
+		b.Curves = designCurves(d, ss, false)
+		for i, cs := range c.Settings {
+			off := 0.0
+			if i < len(res.Curves) {
+				off = res.Curves[i].OffsetDB
+			}
+			db := make([]float64, len(cs.DB))
+			for j, v := range cs.DB {
+				db[j] = v + off
+			}
+			b.Curves = append(b.Curves, curve{Label: "target " + b.Curves[i].Label, Hz: c.Hz, DB: db, Dash: true,
+				Color: curveColors[i%len(curveColors)]})
+		}
 	}
 	t := res.Targets
 	if t.ScoopHz != nil && res.Metrics.ScoopFound {
