@@ -299,3 +299,30 @@ func TestSynthInputHints(t *testing.T) {
 		}
 	}
 }
+
+// The CSV analyze --csv writes is a valid curve target: the invented test
+// board with its low-pass leg capacitor at 15 nF gives the curve, and the
+// board as it is, that capacitor free, is fitted back to it; a list form
+// of targets re-voices by figures at knob settings.
+func TestSynthCurveAndList(t *testing.T) {
+	dir := t.TempDir()
+	board := writeTemp(t, "board.yaml", synthBoard)
+	moved := writeTemp(t, "moved.yaml", strings.Replace(synthBoard, "c: 10n", "c: 15n", 1))
+	csvPath := filepath.Join(dir, "moved.csv")
+	if code, _, stderr := tw(t, "analyze", moved, "--csv", csvPath); code != 0 {
+		t.Fatalf("analyze: exit %d %s", code, stderr)
+	}
+	code, stdout, stderr := tw(t, "synth", "--from", board, "--free", "lowpass.c", "--curve", csvPath)
+	if code != 0 || !strings.Contains(stdout, "curve fit (blend=0.5): RMS 0.000 dB") || !strings.Contains(stdout, "lowpass.c (blend low-pass leg C): 10 nF → 15 nF") {
+		t.Errorf("exit %d\n%s%s", code, stdout, stderr)
+	}
+	list := writeTemp(t, "list.yaml", "targets:\n  - {knobs: {blend: 1}, corner_hz: 8k}\n")
+	code, stdout, stderr = tw(t, "synth", list, "--from", board, "--free", "filters.c")
+	if code != 0 || !strings.Contains(stdout, "corner (blend=1)") {
+		t.Errorf("exit %d\n%s%s", code, stdout, stderr)
+	}
+	code, _, stderr = tw(t, "synth", list)
+	if code != 2 || !strings.Contains(stderr, "the list form of targets re-voices a design") {
+		t.Errorf("exit %d %s", code, stderr)
+	}
+}
