@@ -44,6 +44,7 @@ type goal struct {
 	items              []Item     // the list form; nil: the mapping form above
 	rows               []row      // the list form's figures
 	fitLevel           bool       // curves: an overall level offset goes free
+	effort             int        // Options.Effort
 }
 
 // tieBreak weighs the insertion loss at 1 kHz (dB) against the squared

@@ -158,6 +158,10 @@ type Options struct {
 	// Prefer chooses among the designs of allowed values that meet the
 	// tolerance: Closest (the default) or LeastLoss.
 	Prefer Prefer
+	// Effort widens the walk over allowed values: 1 (or 0) the default,
+	// 2 and 3 sweep more levels of each free part and more pots, at a
+	// cost in time (README).
+	Effort int
 	// Progress, if set, is called from time to time with the work done
 	// and the (estimated) work in all, in objective evaluations.
 	Progress func(done, total int)

@@ -34,6 +34,7 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 		return nil, p.place(err)
 	}
 	g.prefer = opt.Prefer
+	g.effort = opt.Effort
 	g.maxOut, g.maxLoss = p.Limits.MaxOutputImpedance, p.Limits.MaxLossDB
 	g.priority = p.Priority
 	vars, err := p.variables(base, s)
@@ -398,7 +399,7 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 	walked := false
 	if fresh {
 		// Walk the allowed values along the exact solutions.
-		if vals, ok := walk(e, ideal, tol, g.prefer); ok {
+		if vals, ok := walk(e, ideal, tol, g.prefer, g.effort); ok {
 			chosen, cost, walked = vals, e.at(vals), true
 		}
 	}

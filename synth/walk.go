@@ -436,7 +436,16 @@ func membersNear(v *variable, x, h float64) []float64 {
 // problem has slaved parts); the values are then the best measured, and
 // ideal is overwritten with the exact design nearest them (the free parts
 // at their chosen values) when the targets can be solved there.
-func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer) ([]float64, bool) {
+func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort int) ([]float64, bool) {
+	// A higher effort sweeps more levels and pots: level L either side,
+	// pots within a factor F, at most P pots and A anchors.
+	effort = max(1, effort)
+	levelsEither := walkLevels + 2*(effort-1)
+	potFactor := walkPotFactor * math.Pow(4, float64(effort-1))
+	maxPots := walkPots + 2*(effort-1)
+	anchorMax := walkAnchorMax * effort * effort
+	solveMax := walkSolve * effort * effort
+	keep := walkMeasure * effort * effort
 	slaved, free := slavedVars(e)
 	if slaved == nil || len(free) == 0 {
 		return nil, false
@@ -458,7 +467,7 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer) ([]float6
 		v := &e.vars[j]
 		if v.kind == networks.PartPot {
 			var ps []float64
-			for _, m := range membersNear(v, x0[j], math.Log(walkPotFactor)) {
+			for _, m := range membersNear(v, x0[j], math.Log(potFactor)) {
 				ps = append(ps, m)
 			}
 			slices.SortStableFunc(ps, func(a, b float64) int {
@@ -471,10 +480,10 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer) ([]float6
 				}
 				return 0
 			})
-			levels[q] = ps[:min(walkPots, len(ps))]
+			levels[q] = ps[:min(maxPots, len(ps))]
 			continue
 		}
-		for k := -walkLevels; k <= walkLevels; k++ {
+		for k := -levelsEither; k <= levelsEither; k++ {
 			x := math.Min(math.Max(x0[j]+float64(k)*walkLevel, v.lo), v.hi)
 			if m, err := eseries.Nearest(v.set, math.Exp(x)); err == nil && !slices.ContainsFunc(levels[q], func(y float64) bool { return same(y, m) }) {
 				levels[q] = append(levels[q], m)
@@ -497,7 +506,7 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer) ([]float6
 	x := make([]float64, nv)
 	anchors := 0
 	var restored [][]float64 // the anchors' points, to start neighbours from
-	for anchors < walkAnchorMax {
+	for anchors < anchorMax {
 		// Start from the restored anchor nearest in the free parts.
 		start := x0
 		bestD := math.Inf(1)
@@ -529,8 +538,8 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer) ([]float6
 					freeVals[q] = membersNear(v, x[j], walkLevel/2)
 				}
 			}
-			for _, c := range w.predictAround(x, freeVals, false, walkMeasure) {
-				top = insertCandidate(w, top, c, walkMeasure)
+			for _, c := range w.predictAround(x, freeVals, false, keep) {
+				top = insertCandidate(w, top, c, keep)
 			}
 		}
 		q := 0
@@ -554,7 +563,7 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer) ([]float6
 	// the slaved parts: their roundings then predict well.
 	var done []string
 	for _, c := range top {
-		if len(done) == walkSolve {
+		if len(done) == solveMax {
 			break
 		}
 		fk := make([]float64, len(free))

@@ -37,6 +37,7 @@ type synthFlags struct {
 	out, plot                           string
 	json                                bool
 	seed                                uint64
+	effort                              int
 }
 
 func newSynthCmd(a *app) *cobra.Command {
@@ -93,6 +94,7 @@ design is still reported and written).`,
 	fl.StringVar(&f.plot, "plot", "", "draw the chosen design with the targets to `FILE` (.png or .svg)")
 	fl.BoolVar(&f.json, "json", false, "print targets, ideal and chosen designs and the analysis as JSON")
 	fl.Uint64Var(&f.seed, "seed", 0, "seed of the search's random starts")
+	fl.IntVar(&f.effort, "effort", 1, "how widely the standard values are searched: 1, 2 or 3 (the README gives what each costs)")
 	fl.StringVar(&f.prefer, "prefer", "closest", "among the designs within tolerance: closest (figures nearest the targets) or loss (least loss at 1 kHz)")
 	fl.StringVar(&f.curve, "curve", "", "re-voicing: fit the whole curve in `FILE.csv` (hz and db_at_SETTING columns as analyze --csv writes them, or hz,db)")
 	fl.BoolVar(&f.fitLevel, "fit-level", false, "curve: let an overall level offset go free (a measured curve's gain is unknown)")
@@ -151,7 +153,10 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		}
 	}
 
-	opt := synth.Options{Seed: f.seed}
+	if f.effort < 1 || f.effort > 3 {
+		return usageErrorf("--effort %d: give 1 (the default), 2 or 3", f.effort)
+	}
+	opt := synth.Options{Seed: f.seed, Effort: f.effort}
 	switch strings.ToLower(strings.TrimSpace(f.prefer)) {
 	case "closest":
 	case "loss":
