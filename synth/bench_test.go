@@ -1,6 +1,7 @@
 package synth
 
 import (
+	"fmt"
 	"testing"
 
 	"tonewright/networks"
@@ -99,4 +100,24 @@ func BenchmarkRevoiceNetlist(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64(evals), "evals/op")
+}
+
+// BenchmarkSolveEffort is BenchmarkSolve at each --effort level:
+// go test -run XXX -bench SolveEffort -benchtime 2x -cpu 1 ./synth
+func BenchmarkSolveEffort(b *testing.B) {
+	for _, effort := range []int{1, 2, 3} {
+		b.Run(fmt.Sprintf("effort=%d", effort), func(b *testing.B) {
+			p := &Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-10.0), CornerHz: ptr(10e3)},
+				Source: &networks.Source{Impedance: 6.8e3}}
+			evals := 0
+			for i := 0; i < b.N; i++ {
+				r, err := Solve(p, Options{Effort: effort})
+				if err != nil {
+					b.Fatal(err)
+				}
+				evals = r.Evaluations
+			}
+			b.ReportMetric(float64(evals), "evals/op")
+		})
+	}
 }
