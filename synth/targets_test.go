@@ -37,7 +37,7 @@ func TestParseTargetsErrors(t *testing.T) {
 	for _, c := range []struct {
 		name, text, want string
 	}{
-		{"unknown key", "targets:\n  scoop: {hz: 800, depth_db: -10}\n  conrer_hz: 5k\n", `t.yaml:3: targets.conrer_hz: unknown key "conrer_hz": accepted keys here are corner_hz, scoop`},
+		{"unknown key", "targets:\n  scoop: {hz: 800, depth_db: -10}\n  conrer_hz: 5k\n", `t.yaml:3: targets.conrer_hz: unknown key "conrer_hz": accepted keys here are corner_hz, curve, fit_level, scoop`},
 		{"bad value", "targets:\n  scoop: {hz: 8x0, depth_db: -10}\n", "t.yaml:2: targets.scoop.hz:"},
 		{"positive depth", "targets:\n  scoop: {hz: 800, depth_db: 4}\n", "t.yaml:2: targets.scoop.depth_db: 4 dB: a scoop's depth is negative"},
 		{"knob", "targets:\n  scoop: {hz: 800, depth_db: -4, at: 1.5}\n", "t.yaml:2: targets.scoop.at: knob position 1.5 is outside 0..1"},
