@@ -199,7 +199,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		if err := printJSON(a.out, synthJSON{Targets: res.Targets, Ideal: synth.NewDesignJSON(res.Ideal),
 			Design: synth.NewDesignJSON(res.Design), Achieved: an, Met: res.Met, Feasible: res.Feasible,
 			Parts: res.Parts, Checks: res.Checks, Changes: nonNil(res.Changes), Prefer: res.Prefer, Cause: res.Cause,
-			Starts: res.Starts, Conflict: res.Conflicts, AtLimit: res.AtLimit}); err != nil {
+			Starts: res.Starts, Conflict: res.Conflicts, AtLimit: res.AtLimit, Limits: res.Limits, Curves: res.Curves}); err != nil {
 			return err
 		}
 	} else {
@@ -233,6 +233,8 @@ type synthJSON struct {
 	Starts   int                `json:"starts,omitempty"`
 	Conflict []synth.Conflict   `json:"conflicts,omitempty"`
 	AtLimit  []synth.AtLimit    `json:"at_limit,omitempty"`
+	Limits   []synth.LimitCheck `json:"limits,omitempty"`
+	Curves   []synth.CurveFit   `json:"curves,omitempty"`
 }
 
 func nonNil(c []synth.Change) []synth.Change {
