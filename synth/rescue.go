@@ -7,6 +7,8 @@ import (
 	"slices"
 	"strings"
 
+	"gonum.org/v1/gonum/optimize"
+
 	"tonewright/networks"
 )
 
@@ -32,6 +34,7 @@ const (
 	rescueBest    = 4  // points pulled again by priority
 	prioritySteps = 30
 	priorityEvals = 400 // Nelder–Mead evaluations per point pulled by priority
+	cmaEvals      = 600 // per CMA-ES run
 	// rescueStream is the fixed PCG stream of the random starts.
 	rescueStream = 0x72657363756521
 )
@@ -150,6 +153,15 @@ func rescue(e *evaluator, x0 []float64, seeds [][]float64) rescued {
 	mf.moving(all)
 	var starts [][]float64
 	starts = append(starts, slices.Clone(x0))
+	if len(seeds) == 0 && nv >= 2 {
+		// No physics seed (a re-voicing of any network): a global
+		// search first, CMA-ES with restarts of growing step, each
+		// result a start for the pull.
+		for k, step := range cmaSteps {
+			x, _ := cmaES(e, x0, step, cmaEvals, uint64(k))
+			starts = append(starts, x)
+		}
+	}
 	// Physics seeds: the best by cost, and the best of each pot value.
 	if len(seeds) > 0 {
 		type sc struct {
@@ -322,4 +334,23 @@ func priorityWeights(ranks []int) []float64 {
 		w[i] = math.Pow(30, float64(3-min(r, 3)))
 	}
 	return w
+}
+
+// cmaSteps are the initial step sizes (log units) of the CMA-ES runs.
+var cmaSteps = []float64{0.5, 1.5}
+
+// cmaES runs gonum/optimize's CMA-ES (the Cholesky variant) on the
+// objective from x0 with the initial step size and evaluation budget, its
+// samples drawn from a PCG seeded by run (not by Options.Seed, so that the
+// verdict does not depend on it), one evaluation at a time. It returns the
+// best point and its cost, never worse than x0's.
+func cmaES(e *evaluator, x0 []float64, step float64, evals int, run uint64) ([]float64, float64) {
+	f0 := e.f(x0)
+	method := &optimize.CmaEsChol{InitStepSize: step, Src: rand.NewPCG(run, rescueStream)}
+	settings := &optimize.Settings{FuncEvaluations: evals, Converger: &optimize.FunctionConverge{Absolute: 1e-7, Iterations: 40}}
+	res, _ := optimize.Minimize(optimize.Problem{Func: e.f}, x0, settings, method)
+	if res == nil || !(res.F < f0) {
+		return slices.Clone(x0), f0
+	}
+	return res.X, res.F
 }
