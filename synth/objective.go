@@ -100,6 +100,9 @@ type evaluator struct {
 	// weights, when set, weigh the targets' errors by priority in the
 	// cost (see priorityWeights); nil: every target alike.
 	weights []float64
+	// slack, when set with weights, is each target's tolerance in units
+	// of IdealTolerance: the weights then apply to the miss beyond it.
+	slack []float64
 
 	progress func()
 }
@@ -251,7 +254,13 @@ func (e *evaluator) cost(m *Metrics) float64 {
 		// priority, squared, so that the lower ranks give way.
 		var errs [maxTargets]float64
 		for i, x := range errs[:e.targetErrors(m, &errs)] {
-			c += sq(e.weights[i] * x)
+			if e.slack == nil {
+				c += sq(e.weights[i] * x)
+				continue
+			}
+			// The parts of allowed values: what counts by priority is
+			// the miss beyond the tolerance; within it, the error.
+			c += sq(e.weights[i]*math.Max(0, math.Abs(x)-e.slack[i])) + sq(x)
 		}
 		if math.IsInf(e.worst(m), 1) {
 			c += noScoopWeighted

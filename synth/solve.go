@@ -388,8 +388,10 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 			x = lean(e, x, nil)
 		}
 		if !rc.met {
-			// The parts of allowed values keep the same priority.
+			// The parts of allowed values keep the same priority, on
+			// their misses beyond the tolerance.
 			e.weights = priorityWeights(g.ranks())
+			e.slack = slackOf(g, tol)
 		}
 	}
 	e.setLog(x)
@@ -662,4 +664,32 @@ func (l *Limits) apply(s *sets) error {
 		s.caps = eseries.Range(s.caps, minC, s.capRange[1])
 	}
 	return nil
+}
+
+// slackOf is each target's tolerance tol in units of IdealTolerance, in
+// the order of evaluator.targetErrors.
+func slackOf(g goal, tol Tolerance) []float64 {
+	var out []float64
+	freq := func(f bool) {
+		if f {
+			out = append(out, math.Log1p(tol.Freq)/IdealTolerance.Freq)
+		} else {
+			out = append(out, tol.Level/IdealTolerance.Level)
+		}
+	}
+	if len(g.rows) > 0 {
+		for _, r := range g.rows {
+			freq(r.unit == "Hz")
+		}
+		return out
+	}
+	if g.scoop {
+		freq(true)
+		freq(false)
+		freq(false)
+	}
+	if g.corner {
+		freq(true)
+	}
+	return out
 }

@@ -618,7 +618,7 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 			}
 		}
 		for _, c := range res.Conflicts {
-			fmt.Fprintf(w, "  %s\n", conflictLine(c))
+			fmt.Fprintf(w, "  %s\n", conflictLine(c, res.Checks))
 		}
 		if len(res.Conflicts) > 0 {
 			fmt.Fprintln(w, "targets kept first: scoop frequency and corner, then depth, then balance, unless --priority says otherwise")
@@ -802,7 +802,7 @@ func searchSaid(res *synth.Result) string {
 
 // conflictLine says how near a missed target comes while the targets met
 // are kept.
-func conflictLine(c synth.Conflict) string {
+func conflictLine(c synth.Conflict, checks []synth.Check) string {
 	near := "none found"
 	if c.Found {
 		near = figure(c.Unit, c.Nearest, true)
@@ -810,9 +810,19 @@ func conflictLine(c synth.Conflict) string {
 	if len(c.Held) == 0 {
 		return fmt.Sprintf("%s: wanted %s, nearest found %s", c.Target, figure(c.Unit, c.Wanted, true), near)
 	}
-	held := strings.Join(c.Held, ", ")
-	if k := len(c.Held); k > 1 {
-		held = strings.Join(c.Held[:k-1], ", ") + " and " + c.Held[k-1]
+	var hs []string
+	for _, name := range c.Held {
+		h := name
+		for _, ch := range checks {
+			if ch.Name == name {
+				h += " at " + figure(ch.Unit, ch.Wanted, true)
+			}
+		}
+		hs = append(hs, h)
+	}
+	held := strings.Join(hs, ", ")
+	if k := len(hs); k > 1 {
+		held = strings.Join(hs[:k-1], ", ") + " and " + hs[k-1]
 	}
 	return fmt.Sprintf("%s: wanted %s; the nearest that keeps the %s is %s", c.Target, figure(c.Unit, c.Wanted, true), held, near)
 }

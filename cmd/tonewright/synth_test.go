@@ -162,7 +162,7 @@ func TestSynthInfeasible(t *testing.T) {
 	}
 	for _, want := range []string{"not met:", "scoop balance: wanted +30.0 dB", "nearest achievable",
 		"no design within the tolerance was found in", "starts (physics seeds, random starts over every part, each pot value)",
-		"scoop balance: wanted +30.0 dB; the nearest that keeps the scoop frequency, scoop depth and corner is"} {
+		"scoop balance: wanted +30.0 dB; the nearest that keeps the scoop frequency at 800 Hz, scoop depth at -8.0 dB and corner at 10 kHz is"} {
 		if !strings.Contains(stdout, want) {
 			t.Errorf("report lacks %q:\n%s", want, stdout)
 		}
