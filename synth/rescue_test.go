@@ -25,6 +25,9 @@ func TestPriorityKeepsOrder(t *testing.T) {
 		if c.Name != "scoop balance" && !c.IdealMet {
 			t.Errorf("%s missed (%v against %v) although only the balance conflicts", c.Name, c.Ideal, c.Wanted)
 		}
+		if c.Name != "scoop balance" && !c.Met {
+			t.Errorf("chosen parts: %s missed (%v against %v) although only the balance conflicts", c.Name, c.Achieved, c.Wanted)
+		}
 	}
 	if len(r.Conflicts) != 1 || r.Conflicts[0].Target != "scoop balance" || len(r.Conflicts[0].Held) != 3 {
 		t.Errorf("conflicts %+v, want the balance against the three others", r.Conflicts)
