@@ -391,7 +391,12 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 			// The parts of allowed values keep the same priority, on
 			// their misses beyond the tolerance.
 			e.weights = priorityWeights(g.ranks())
-			e.slack = slackOf(g, tol)
+			if fresh {
+				// (A re-voicing's runs of single parts are starts
+				// for the joint one, which the pruning pass trims;
+				// they keep the plain weights.)
+				e.slack = slackOf(g, tol)
+			}
 		}
 	}
 	e.setLog(x)
