@@ -1,6 +1,7 @@
 package synth
 
 import (
+	"fmt"
 	"testing"
 
 	"tonewright/networks"
@@ -68,4 +69,55 @@ func BenchmarkRestore(b *testing.B) {
 		mf.restore(x, startSteps)
 	}
 	b.ReportMetric(float64(e.evals-evals)/float64(b.N), "evals/op")
+}
+
+// BenchmarkRevoiceNetlist is a synthesis of the nine parts of a netlist
+// (the invented blend netlist with its two sections) to the figures of the
+// same netlist with other values, through networks.Design.Compile. The
+// goal is under 5 s per operation on one core:
+// go test -run XXX -bench RevoiceNetlist -benchtime 1x -cpu 1 ./synth
+func BenchmarkRevoiceNetlist(b *testing.B) {
+	moved := blendNetlist(18e-9)
+	moved.Tone.Parts[0].Value = 33e3
+	moved.Filters[0].R, moved.Filters[1].R = 12e3, 12e3
+	e := newEvaluator(moved, goal{at: 0.5})
+	m := networks.NewMeter(moved.Band)
+	e.compile(0.5)
+	s, _ := m.Scoop(e.resp())
+	e.compile(1)
+	corner, _ := m.Corner(e.resp())
+	p := &Problem{Targets: Targets{ScoopHz: ptr(s.Hz), DepthDB: ptr(s.DepthDB), BalanceDB: ptr(s.BalanceDB), CornerHz: ptr(corner)},
+		From: blendNetlist(12e-9)}
+	evals := 0
+	for i := 0; i < b.N; i++ {
+		r, err := Solve(p, Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		evals = r.Evaluations
+		if !r.Met {
+			b.Fatalf("not met: %+v", r.Checks)
+		}
+	}
+	b.ReportMetric(float64(evals), "evals/op")
+}
+
+// BenchmarkSolveEffort is BenchmarkSolve at each --effort level:
+// go test -run XXX -bench SolveEffort -benchtime 2x -cpu 1 ./synth
+func BenchmarkSolveEffort(b *testing.B) {
+	for _, effort := range []int{1, 2, 3} {
+		b.Run(fmt.Sprintf("effort=%d", effort), func(b *testing.B) {
+			p := &Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-10.0), CornerHz: ptr(10e3)},
+				Source: &networks.Source{Impedance: 6.8e3}}
+			evals := 0
+			for i := 0; i < b.N; i++ {
+				r, err := Solve(p, Options{Effort: effort})
+				if err != nil {
+					b.Fatal(err)
+				}
+				evals = r.Evaluations
+			}
+			b.ReportMetric(float64(evals), "evals/op")
+		})
+	}
 }

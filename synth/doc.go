@@ -38,12 +38,25 @@
 // phase's result unless it finds a design that meets the targets with less
 // loss.
 //
-// The discrete stage snaps the ideal values to the allowed ones jointly:
-// every combination of the members just below and just above each ideal
-// value, then single-part (and, when those stall, two-part) moves to the
-// neighbouring members until none improves. If that misses the tolerance
-// while the ideal meets it, the parts are also fixed one at a time, coarsest
-// set first, re-optimising the rest, and the better result is kept.
+// The discrete stage of a fresh synthesis walks the exact solutions (see
+// walk.go): the free parts swept over allowed values, the others solved
+// for the targets, nearby combinations of allowed values ranked by the
+// local slopes, the best measured and polished by moves of one or two
+// parts. Among the designs within the tolerance it prefers the closest
+// (Closest) or the one of least loss (LeastLoss, Options.Prefer). A
+// re-voicing snaps jointly: every combination of the members just below
+// and just above each ideal value, then single-part (and, when those
+// stall, two-part) moves to the neighbouring members until none improves.
+//
+// Before it reports that the ideal parts miss, a synthesis pulls many
+// more starts onto the targets (see rescue.go), none of them drawn from
+// Options.Seed, so the verdict is the same for every seed. Targets that
+// cannot all be met are kept in priority order (Problem.Priority). Limits
+// (Problem.Limits) bound the output impedance, the smallest capacitor and
+// the loss; a design that breaks one does not meet the targets.
+//
+// Any network can be re-voiced: a netlist design's parts are the
+// variables, by name, and its figures are measured along its swept knob.
 //
 // Re-voicing starts from an existing design (Problem.From) and may limit
 // which parts change (Problem.Free) and how many (Problem.MaxChanges); the

@@ -69,6 +69,10 @@ type manifold struct {
 	d           []float64 // the step, one per variable moved
 	held        []bool    // variables held at a bound in this step
 	a           []float64 // the step's equations, n × (n+1) for n targets
+	weights     []float64 // per target, on the errors; nil: 1
+	// leastSquares lets restoring move fewer variables than there are
+	// targets (the damped least-squares step), for the nearest figures.
+	leastSquares bool
 }
 
 // slavedVars returns the indices of the variables the lean phase solves
@@ -126,6 +130,11 @@ func (mf *manifold) measure(x, r []float64) (gain, ss, worst float64) {
 	e.measure(&m)
 	var errs [maxTargets]float64
 	copy(r, errs[:e.targetErrors(&m, &errs)])
+	if mf.weights != nil {
+		for i := range r {
+			r[i] *= mf.weights[i]
+		}
+	}
 	for _, v := range r {
 		ss += v * v
 	}
@@ -171,8 +180,11 @@ func (mf *manifold) restore(x []float64, steps int) (gain, ss float64, ok bool) 
 	d := mf.d[:p]
 	gain, ss, worst := mf.measure(x, mf.r)
 	damping := 1e-6
+	if mf.leastSquares {
+		damping = 1e-3
+	}
 	blocked := 0 // steps in a row that ran into a bound
-	for step := 0; step < steps && !(worst <= restoreTol) && blocked < maxBlocked; step++ {
+	for step := 0; step < steps && !(worst <= restoreTol) && (blocked < maxBlocked || mf.leastSquares); step++ {
 		if !mf.have {
 			mf.jacobian(x)
 		}
@@ -195,7 +207,9 @@ func (mf *manifold) restore(x []float64, steps int) (gain, ss float64, ok bool) 
 		}
 		gy, ssy, wy := mf.measure(mf.y, mf.ry)
 		switch {
-		case ssy < ss && dd > 0:
+		case dd > 0 && (ssy < ss && math.IsInf(wy, 1) == math.IsInf(worst, 1) || math.IsInf(worst, 1) && !math.IsInf(wy, 1)):
+			// Better: a smaller error, and never a step that loses a
+			// wanted scoop or corner.
 			// Broyden's update: J += (Δr − J·d)·dᵀ / (dᵀd).
 			for i := 0; i < n; i++ {
 				jd := 0.0
@@ -241,7 +255,7 @@ func (mf *manifold) solve(x []float64, damping float64) (free, bounded bool) {
 		}
 	}
 	for {
-		if nfree < n {
+		if nfree < n && !(mf.leastSquares && nfree > 0) {
 			return false, true
 		}
 		mf.step(damping)

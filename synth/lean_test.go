@@ -17,9 +17,9 @@ import (
 // then on the gain with every error held within 0.3 × IdealTolerance, and
 // the best of those refined again from 25 random moves. before is what the
 // search gave when it minimised the errors with only the small tie-break
-// toward less loss. The ideal design must come within 0.5 dB of best and
-// the chosen parts within 1.5 dB (the snap to E24/E12 moves the gain by up
-// to about a decibel).
+// toward less loss. The chosen parts and the exact design nearest them
+// (the ideal reported) must come within 1.5 dB of best (the snap to E24/E12 moves the gain by up
+// to about a decibel). The chosen parts are those of --prefer loss.
 func TestLeastLoss(t *testing.T) {
 	audio := networks.Taper{Law: networks.Audio}
 	for _, c := range []struct {
@@ -47,15 +47,17 @@ func TestLeastLoss(t *testing.T) {
 		}, -20.6, -21.8},
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			r, err := Solve(&c.p, Options{})
+			r, err := Solve(&c.p, Options{Prefer: LeastLoss})
 			if err != nil {
 				t.Fatal(err)
 			}
 			if !r.Feasible || !r.Met {
 				t.Fatalf("feasible %v, met %v: %+v", r.Feasible, r.Met, r.Checks)
 			}
-			if g := r.IdealMetrics.Gain1kDB; g < c.best-0.5 {
-				t.Errorf("ideal design: %.2f dB at 1 kHz, want at least %.2f (best found %.1f, before %.1f)", g, c.best-0.5, c.best, c.before)
+			// The ideal design reported is the exact one nearest the
+			// chosen parts, so it is held to the chosen parts' margin.
+			if g := r.IdealMetrics.Gain1kDB; g < c.best-1.5 {
+				t.Errorf("ideal design: %.2f dB at 1 kHz, want at least %.2f (best found %.1f, before %.1f)", g, c.best-1.5, c.best, c.before)
 			}
 			if g := r.Metrics.Gain1kDB; g < c.best-1.5 {
 				t.Errorf("chosen parts: %.2f dB at 1 kHz, want at least %.2f (best found %.1f)", g, c.best-1.5, c.best)

@@ -2,6 +2,7 @@ package synth
 
 import (
 	"math"
+	"math/cmplx"
 
 	"tonewright/eseries"
 	"tonewright/networks"
@@ -16,6 +17,18 @@ type Metrics struct {
 	CornerHz    float64        `json:"corner_hz"` // with CornerFound false: 0
 	CornerFound bool           `json:"corner_found"`
 	Gain1kDB    float64        `json:"gain_1k_db"` // at knob 0.5
+	// OutputOhm is |Z| looking back into the output at 1 kHz with the
+	// knob at the scoop's position; measured only with a
+	// max_output_impedance limit, else 0.
+	OutputOhm float64 `json:"output_impedance_ohm,omitempty"`
+
+	// The list form's figures, one per row (see itemRows), and whether
+	// each was found.
+	Figures [maxTargets]float64 `json:"-"`
+	Found   [maxTargets]bool    `json:"-"`
+	Worst   [maxTargets]float64 `json:"-"` // a curve's largest difference, dB
+	Offset  [maxTargets]float64 `json:"-"` // a curve's level offset taken out (FitLevel), dB
+	nfig    int
 }
 
 // goal is a resolved set of targets.
@@ -25,6 +38,13 @@ type goal struct {
 	hz, depth, balance float64
 	corner             bool
 	cornerHz           float64
+	maxOut, maxLoss    float64    // limits: output impedance (Ω) and loss (dB); 0: none
+	prefer             Prefer     // which design of those within tolerance
+	priority           [][]string // which targets give way first; nil: DefaultPriority
+	items              []Item     // the list form; nil: the mapping form above
+	rows               []row      // the list form's figures
+	fitLevel           bool       // curves: an overall level offset goes free
+	effort             int        // Options.Effort
 }
 
 // tieBreak weighs the insertion loss at 1 kHz (dB) against the squared
@@ -40,6 +60,10 @@ const tieBreak = 0.1
 // figures rather than drop the scoop. Within the curves without a scoop
 // the levels at the target frequency still give the search a slope.
 const noScoop = 1e5
+
+// noScoopWeighted is noScoop for the priority-weighted cost: more than any
+// weighted miss.
+const noScoopWeighted = 1e18
 
 // boundWeight is the penalty per squared natural-log unit by which a
 // continuous value leaves its range.
@@ -70,19 +94,67 @@ type evaluator struct {
 	chain networks.Chain
 	level networks.Level
 	k     networks.Compiled
+	knob  string             // the knob the targets are measured along, for a non-blend design
+	gen   networks.Evaluator // the last compiled response of a non-blend design; nil for the blend form
 	evals int
+	// weights, when set, weigh the targets' errors by priority in the
+	// cost (see priorityWeights); nil: every target alike.
+	weights []float64
+	// slack, when set with weights, is each target's tolerance in units
+	// of IdealTolerance: the weights then apply to the miss beyond it.
+	slack []float64
 
 	progress func()
 }
 
 func newEvaluator(d *networks.Design, g goal) *evaluator {
 	e := &evaluator{d: d, goal: g, meter: networks.NewMeter(d.Band)}
+	if d.Tone.Network != networks.BlendNetwork {
+		e.knob = sweptKnob(d)
+	}
 	return e
 }
 
-// compile builds the working design's chain at blend position p into e.k.
+// sweptKnob is the knob a non-blend design's targets are measured along:
+// the design's swept knob, else its first knob ("" when it has none).
+func sweptKnob(d *networks.Design) string {
+	if k := d.SweptKnob(); k != "" {
+		return k
+	}
+	if ks := d.KnobNames(); len(ks) > 0 {
+		return ks[0]
+	}
+	return ""
+}
+
+// resp is the response compiled last.
+func (e *evaluator) resp() networks.Response {
+	if e.gen != nil {
+		return e.gen
+	}
+	return &e.k
+}
+
+// compile builds the working design's response with its knob at position
+// p: for the blend form the chain into e.k (no allocation), for any other
+// network d.Compile at the design's own setting with the knob moved.
 func (e *evaluator) compile(p float64) {
 	d := e.d
+	if d.Tone.Network != networks.BlendNetwork {
+		over := map[string]float64{}
+		if e.knob != "" {
+			over[e.knob] = p
+		}
+		s, err := d.Setting(over)
+		if err == nil {
+			e.gen, err = d.Compile(s)
+		}
+		if err != nil {
+			e.gen = flat{}
+		}
+		return
+	}
+	e.gen = nil
 	c := &e.chain
 	c.Source = d.Source
 	c.Blend = networks.Blend{Lowpass: d.Tone.Lowpass, Highpass: d.Tone.Highpass,
@@ -107,25 +179,41 @@ func (e *evaluator) measure(m *Metrics) {
 		e.progress()
 	}
 	g := &e.goal
+	if len(g.items) > 0 {
+		e.measureItems(m)
+		return
+	}
 	f := g.hz
 	if !g.scoop {
 		f = math.Sqrt(e.d.Band.From * e.d.Band.To)
 	}
 	e.compile(g.at)
-	m.Scoop, m.ScoopFound = e.meter.ScoopOrLevelsAt(&e.k, f)
+	m.Scoop, m.ScoopFound = e.meter.ScoopOrLevelsAt(e.resp(), f)
+	if g.maxOut > 0 {
+		if e.gen == nil {
+			m.OutputOhm = cmplx.Abs(e.k.OutputImpedance(1000))
+		} else {
+			m.OutputOhm = math.Inf(1)
+			if s, err := e.d.Setting(map[string]float64{e.knob: g.at}); err == nil {
+				if _, out, err := e.d.Impedances(s, 1000); err == nil {
+					m.OutputOhm = out
+				}
+			}
+		}
+	}
 	if g.at == 0.5 {
-		m.Gain1kDB = networks.Gain1k(&e.k)
+		m.Gain1kDB = networks.Gain1k(e.resp())
 	}
 	if g.at != 1 {
 		e.compile(1)
 	}
-	m.CornerHz, m.CornerFound = e.meter.Corner(&e.k)
+	m.CornerHz, m.CornerFound = e.meter.Corner(e.resp())
 	if !m.CornerFound {
 		m.CornerHz = e.cornerSurrogate()
 	}
 	if g.at != 0.5 {
 		e.compile(0.5)
-		m.Gain1kDB = networks.Gain1k(&e.k)
+		m.Gain1kDB = networks.Gain1k(e.resp())
 	}
 }
 
@@ -136,7 +224,8 @@ func (e *evaluator) measure(m *Metrics) {
 func (e *evaluator) cornerSurrogate() float64 {
 	b := e.d.Band
 	top := 10 * b.To
-	drop := e.k.GainDB(math.Sqrt(b.From*b.To)) - e.k.GainDB(top)
+	r := e.resp()
+	drop := r.GainDB(math.Sqrt(b.From*b.To)) - r.GainDB(top)
 	return top * math.Exp(0.1*math.Max(0, 3-drop))
 }
 
@@ -144,11 +233,39 @@ func (e *evaluator) cornerSurrogate() float64 {
 // loss (squared near the targets), plus the tie-break on insertion loss.
 func (e *evaluator) cost(m *Metrics) float64 {
 	g := &e.goal
-	c := 0.0
+	c := limitPenalty * e.overLimits(m)
+	if len(g.items) > 0 {
+		var errs [maxTargets]float64
+		for k, x := range errs[:e.itemErrors(m, &errs)] {
+			c += loss(x)
+			if !m.Found[k] {
+				c += noScoop
+			}
+		}
+		return c - tieBreak*m.Gain1kDB
+	}
 	if g.scoop && !m.ScoopFound {
 		// The levels at the target frequency keep a slope; the penalty
 		// keeps a curve without a dip from ever beating one with it.
 		c += noScoop
+	}
+	if e.weights != nil {
+		// Targets that cannot all be met: each error weighed by its
+		// priority, squared, so that the lower ranks give way.
+		var errs [maxTargets]float64
+		for i, x := range errs[:e.targetErrors(m, &errs)] {
+			if e.slack == nil {
+				c += sq(e.weights[i] * x)
+				continue
+			}
+			// The parts of allowed values: what counts by priority is
+			// the miss beyond the tolerance; within it, the error.
+			c += sq(e.weights[i]*math.Max(0, math.Abs(x)-e.slack[i])) + sq(x)
+		}
+		if math.IsInf(e.worst(m), 1) {
+			c += noScoopWeighted
+		}
+		return c - tieBreak*m.Gain1kDB
 	}
 	if g.scoop {
 		c += loss(math.Log(m.Scoop.Hz/g.hz)/IdealTolerance.Freq) +
@@ -162,8 +279,9 @@ func (e *evaluator) cost(m *Metrics) float64 {
 }
 
 // maxTargets is the number of figures a synthesis can aim at: the scoop's
-// frequency, depth and balance, and the corner.
-const maxTargets = 4
+// frequency, depth and balance, and the corner, or the rows of the list
+// form.
+const maxTargets = 16
 
 // targetErrors writes the error of each target in units of IdealTolerance to
 // dst, in the order scoop frequency, depth, balance, corner (those that
@@ -172,6 +290,9 @@ const maxTargets = 4
 // same.
 func (e *evaluator) targetErrors(m *Metrics, dst *[maxTargets]float64) int {
 	g := &e.goal
+	if len(g.items) > 0 {
+		return e.itemErrors(m, dst)
+	}
 	n := 0
 	if g.scoop {
 		dst[0] = math.Log(m.Scoop.Hz/g.hz) / IdealTolerance.Freq
@@ -191,6 +312,11 @@ func (e *evaluator) targetErrors(m *Metrics, dst *[maxTargets]float64) int {
 func (e *evaluator) worst(m *Metrics) float64 {
 	if e.goal.scoop && !m.ScoopFound || e.goal.corner && !m.CornerFound {
 		return math.Inf(1)
+	}
+	for k := range e.goal.rows {
+		if !m.Found[k] {
+			return math.Inf(1)
+		}
 	}
 	var errs [maxTargets]float64
 	w := 0.0
@@ -283,3 +409,30 @@ func (e *evaluator) at(vals []float64) float64 {
 	}
 	return c
 }
+
+// limitPenalty weighs how far a design breaks a limit (overLimits): more
+// than the targets' errors, so that the search keeps within the limits.
+const limitPenalty = 1e4
+
+// overLimits is how far the design breaks the limits, squared: the
+// output impedance in tenths of its natural log over the limit, the loss
+// in tenths of a dB over it; 0 within them.
+func (e *evaluator) overLimits(m *Metrics) float64 {
+	g := &e.goal
+	over := 0.0
+	if g.maxOut > 0 && m.OutputOhm > g.maxOut {
+		over += sq(10 * math.Log(m.OutputOhm/g.maxOut))
+	}
+	if g.maxLoss > 0 && -m.Gain1kDB > g.maxLoss {
+		over += sq(10 * (-m.Gain1kDB - g.maxLoss))
+	}
+	return over
+}
+
+// flat is the response of a design that cannot be compiled (a part value
+// the solver refuses): no gain at any frequency, so no figure is found
+// and the search moves away.
+type flat struct{}
+
+func (flat) GainDB(float64) float64      { return math.Inf(-1) }
+func (flat) Transfer(float64) complex128 { return 0 }

@@ -38,6 +38,16 @@ type Problem struct {
 	Band *networks.Band // nil: networks.DefaultBand, or From's
 
 	Targets Targets
+	// Items is the list form of targets (each figure at its own knob
+	// setting), for a re-voicing; nil: Targets.
+	Items []Item
+	// Curve is a whole-curve target, for a re-voicing: the RMS dB error
+	// over the band at each of its settings is minimised. CurveKnobs set
+	// the knobs of a measured curve's single db column (nil: the design's
+	// own setting); FitLevel lets an overall level offset go free.
+	Curve      *Curve
+	CurveKnobs map[string]float64
+	FitLevel   bool
 
 	Source  *networks.Source       // nil: an ideal source (0 Ω), or From's
 	Load    *networks.Load         // nil: networks.DefaultLoad, or From's
@@ -55,6 +65,16 @@ type Problem struct {
 	// MaxChanges is the largest number of parts a re-voicing may change;
 	// 0 means no limit.
 	MaxChanges int
+	// Limits are practical limits the design must keep.
+	Limits Limits
+
+	// Prefer, when set (the targets file's prefer: closest|loss, or the
+	// command's --prefer), chooses among the designs within tolerance in
+	// place of Options.Prefer.
+	Prefer *Prefer
+	// Priority orders the targets for when they cannot all be met
+	// (ParsePriority); nil: DefaultPriority.
+	Priority [][]string
 
 	dec *networks.Decoder // the targets file's, to place errors; nil if built in code
 }
@@ -70,6 +90,25 @@ type Targets struct {
 	At        *float64 // knob position the scoop is measured at; nil: DefaultAt
 	CornerHz  *float64 // output corner at knob 1, Hz
 }
+
+// Limits are practical limits on the design (targets file: limits:). A
+// design that breaks one is not offered as meeting the targets.
+type Limits struct {
+	// MaxOutputImpedance bounds |Z| looking back into the output at
+	// 1 kHz, the knob at the scoop's position, in ohms; 0: no limit.
+	MaxOutputImpedance float64
+	// MinCapacitor is the smallest capacitor chosen, in farads; nil:
+	// DefaultMinCapacitor. It raises the capacitor range's low end.
+	MinCapacitor *float64
+	// MaxLossDB bounds the insertion loss at 1 kHz (knob 0.5), in dB;
+	// 0: no limit.
+	MaxLossDB float64
+}
+
+// DefaultMinCapacitor is the smallest capacitor a synthesis chooses unless
+// told otherwise: below about 100 pF the strays of the wiring and the
+// cable matter (common practice, no published source).
+const DefaultMinCapacitor = 100e-12
 
 // Parts says which values the parts may take.
 type Parts struct {
@@ -120,6 +159,13 @@ type Options struct {
 	// Tolerance is what the chosen design must meet to count as met;
 	// zero: PartsTolerance.
 	Tolerance Tolerance
+	// Prefer chooses among the designs of allowed values that meet the
+	// tolerance: Closest (the default) or LeastLoss.
+	Prefer Prefer
+	// Effort widens the walk over allowed values: 1 (or 0) the default,
+	// 2 and 3 sweep more levels of each free part and more pots, at a
+	// cost in time (README).
+	Effort int
 	// Progress, if set, is called from time to time with the work done
 	// and the (estimated) work in all, in objective evaluations.
 	Progress func(done, total int)

@@ -87,6 +87,26 @@ func (p *Problem) design() (*networks.Design, error) {
 // synthesis, the design's current figures when re-voicing.
 func (p *Problem) goal(d *networks.Design) (goal, error) {
 	t := p.Targets
+	if len(p.Items) > 0 || p.Curve != nil {
+		if t.ScoopHz != nil || t.DepthDB != nil || t.BalanceDB != nil || t.CornerHz != nil || t.At != nil {
+			return goal{}, fieldErrorf("targets", "the targets are given as a list or a curve: give the scoop and corner there too, not as flags (--scoop-hz, --depth, --balance, --at, --corner)")
+		}
+		items := slices.Clone(p.Items)
+		if p.Curve != nil {
+			if p.From == nil {
+				return goal{}, fieldErrorf("targets.curve", "a curve target voices a design: give it with --from DESIGN.yaml (its parts named by --free are fitted)")
+			}
+			for _, s := range p.Curve.Settings {
+				if s.Knobs != nil {
+					if _, err := d.Setting(s.Knobs); err != nil {
+						return goal{}, &networks.FieldError{File: p.Curve.File, Line: 1, Key: "db_at_" + s.Label, Err: err}
+					}
+				}
+			}
+			items = append(items, curveItems(p.Curve, d, p.CurveKnobs)...)
+		}
+		return p.resolveItems(d, items)
+	}
 	g := goal{at: DefaultAt}
 	if t.At != nil {
 		g.at = *t.At
@@ -102,17 +122,21 @@ func (p *Problem) goal(d *networks.Design) (goal, error) {
 		// sections hold placeholder values.
 		from := p.From
 		m := networks.NewMeter(from.Band)
-		c := from.Chain(g.at)
-		k := c.Compile()
-		s, found := m.Scoop(k)
+		fe := newEvaluator(from, g)
+		if from.Tone.Network != networks.BlendNetwork && fe.knob == "" && scoopGiven {
+			return g, fieldErrorf("targets.scoop.at", "the design %s has no knob to measure the scoop along", designName(d))
+		}
+		fe.compile(g.at)
+		s, found := m.Scoop(fe.resp())
 		if found {
 			g.scoop, g.hz, g.depth, g.balance = true, s.Hz, s.DepthDB, s.BalanceDB
 		} else if scoopGiven && (t.ScoopHz == nil || t.DepthDB == nil) {
 			return g, fieldErrorf("targets.scoop", "the design %s has no scoop at knob %v to keep: give both the frequency and the depth",
 				designName(d), g.at)
 		}
-		if hz := networks.CornerOf(from, m); hz != nil {
-			g.corner, g.cornerHz = true, *hz
+		fe.compile(1)
+		if hz, ok := m.Corner(fe.resp()); ok {
+			g.corner, g.cornerHz = true, hz
 		}
 	} else {
 		if t.ScoopHz == nil || t.DepthDB == nil {
@@ -159,6 +183,13 @@ func (p *Problem) goal(d *networks.Design) (goal, error) {
 	}
 	if g.corner && (!(g.cornerHz > 0) || math.IsInf(g.cornerHz, 0)) {
 		return g, fieldErrorf("targets.corner_hz", "%v Hz must be positive and finite", g.cornerHz)
+	}
+	// The corner is measured from band low to 10 × band high (see
+	// networks.Meter.Corner): a target outside that cannot be measured,
+	// so no design can be shown to meet it.
+	if b := d.Band; g.corner && !(g.cornerHz > b.From && g.cornerHz < 10*b.To) {
+		return g, fieldErrorf("targets.corner_hz", "%s Hz lies outside what the corner can measure (%s Hz to 10 × band high = %s Hz): give a corner inside that range, e.g. 5k, or widen the band",
+			eseries.Format(g.cornerHz), eseries.Format(b.From), eseries.Format(10*b.To))
 	}
 	if !g.scoop && !g.corner {
 		return g, fieldErrorf("targets", "%v: give a scoop (frequency and depth) or a corner", errNoTargets)

@@ -16,9 +16,10 @@ type Result struct {
 	IdealMetrics Metrics `json:"ideal_metrics"` // of Ideal
 	Metrics      Metrics `json:"metrics"`       // of Design
 
-	Parts   []Choice `json:"parts"`   // every part of Design, in signal order
-	Checks  []Check  `json:"checks"`  // every target
-	Changes []Change `json:"changes"` // re-voicing: the parts to swap
+	Parts   []Choice     `json:"parts"`            // every part of Design, in signal order
+	Checks  []Check      `json:"checks"`           // every target
+	Limits  []LimitCheck `json:"limits,omitempty"` // every limit set
+	Changes []Change     `json:"changes"`          // re-voicing: the parts to swap
 
 	// Feasible reports whether the continuous optimum meets every target
 	// within IdealTolerance; when it does not, the targets ask for more
@@ -41,10 +42,87 @@ type Result struct {
 	// below the number of free parts), else 0; StockFile is the stock
 	// file's name when a stock restricted the parts ("stock" for one
 	// built in code), else "".
-	MaxChanges int    `json:"max_changes,omitempty"`
-	StockFile  string `json:"stock_file,omitempty"`
+	// Freed is, when a re-voicing limited by Problem.Free misses, the
+	// best design with every part free; nil otherwise.
+	Freed *Result `json:"freed,omitempty"`
+	// AtLimit lists the free parts whose ideal value sits at a limit of
+	// its range (a resistor or capacitor range, the pot list's ends).
+	AtLimit []AtLimit `json:"at_limit,omitempty"`
+	// Widened is, when the ideal values miss with a part at a range
+	// limit, the search with every range widened a hundredfold.
+	Widened    *Result `json:"widened,omitempty"`
+	MaxChanges int     `json:"max_changes,omitempty"`
+	StockFile  string  `json:"stock_file,omitempty"`
+
+	// Starts is, when the first search missed a target, how many starts
+	// the rescue pulled onto the targets (see rescue); 0 otherwise. When
+	// Feasible is false no design within IdealTolerance was found in
+	// that many starts: the verdict rests on that search, not on a proof.
+	Starts int `json:"starts,omitempty"`
+	// Conflicts are, when the ideal parts miss, the targets missed, each
+	// with the nearest figure found while keeping the targets met
+	// (Held), those ranked above it first (Problem.Priority).
+	Conflicts []Conflict `json:"conflicts,omitempty"`
+	// Curves are, for a curve target, the fit at each setting.
+	Curves []CurveFit `json:"curves,omitempty"`
+	// Prefer is how the chosen design was chosen among those within the
+	// tolerance: "closest" or "loss".
+	Prefer string `json:"prefer"`
 
 	Evaluations int `json:"evaluations"` // of the objective, in all
+}
+
+// LimitCheck is one practical limit against the ideal and chosen designs.
+type LimitCheck struct {
+	Name     string  `json:"name"` // "output impedance", "loss at 1 kHz", "smallest capacitor"
+	Key      string  `json:"key"`  // limits.max_output_impedance, …
+	Unit     string  `json:"unit"` // "Ω", "dB" or "F"
+	Limit    float64 `json:"limit"`
+	Ideal    float64 `json:"ideal"`
+	Achieved float64 `json:"achieved"`
+	IdealMet bool    `json:"ideal_met"`
+	Met      bool    `json:"met"`
+}
+
+// LimitsMet reports whether the chosen design keeps every limit.
+func (r *Result) LimitsMet() bool {
+	for _, l := range r.Limits {
+		if !l.Met {
+			return false
+		}
+	}
+	return true
+}
+
+// AtLimit is an ideal value at a limit of its range.
+type AtLimit struct {
+	Kind  networks.PartKind `json:"-"`
+	Part  string            `json:"part"`
+	Value float64           `json:"value"`
+	Limit string            `json:"limit"` // "low", "high", or "pinned" (a range of one value)
+	Key   string            `json:"key"`   // the targets-file key of the range
+}
+
+// CurveFit is how closely the chosen design follows a target curve at one
+// setting: the RMS and the largest difference over the band, in dB, after
+// the level offset taken out (with Problem.FitLevel; else 0).
+type CurveFit struct {
+	Setting  string  `json:"setting"`
+	RMSDB    float64 `json:"rms_db"`
+	WorstDB  float64 `json:"worst_db"`
+	OffsetDB float64 `json:"offset_db"`
+}
+
+// Conflict is a target the ideal parts miss: the nearest figure found
+// (none when Found is false) while keeping the targets in Held met.
+type Conflict struct {
+	Target  string   `json:"target"` // the Check name: "scoop balance", …
+	Key     string   `json:"key"`
+	Unit    string   `json:"unit"`
+	Wanted  float64  `json:"wanted"`
+	Nearest float64  `json:"nearest"`
+	Found   bool     `json:"found"`
+	Held    []string `json:"held"` // Check names
 }
 
 // Choice is one part of the chosen design.
@@ -77,10 +155,11 @@ type Check struct {
 
 // Change is a part a re-voicing swaps.
 type Change struct {
-	Part string  `json:"part"`
-	Role string  `json:"role"`
-	From float64 `json:"from"` // 0 for a part the original design did not have
-	To   float64 `json:"to"`
+	Kind networks.PartKind `json:"-"`
+	Part string            `json:"part"`
+	Role string            `json:"role"`
+	From float64           `json:"from"` // 0 for a part the original design did not have
+	To   float64           `json:"to"`
 }
 
 func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, evals int) *Result {
@@ -116,7 +195,7 @@ func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, e
 		if orig != nil {
 			c.Original = orig[pt.Name]
 			if !same(c.Chosen, c.Original) && pt.Name != "level" {
-				res.Changes = append(res.Changes, Change{Part: pt.Name, Role: pt.Role, From: c.Original, To: c.Chosen})
+				res.Changes = append(res.Changes, Change{Part: pt.Name, Role: pt.Role, From: c.Original, To: c.Chosen, Kind: pt.Kind})
 			}
 		}
 		res.Parts = append(res.Parts, c)
@@ -127,6 +206,40 @@ func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, e
 	for _, c := range res.Checks {
 		res.Feasible = res.Feasible && c.IdealMet
 		res.Met = res.Met && c.Met
+	}
+	if g.maxOut > 0 {
+		res.Limits = append(res.Limits, LimitCheck{Name: "output impedance", Key: "limits.max_output_impedance", Unit: "Ω", Limit: g.maxOut,
+			Ideal: res.IdealMetrics.OutputOhm, Achieved: res.Metrics.OutputOhm,
+			IdealMet: res.IdealMetrics.OutputOhm <= g.maxOut, Met: res.Metrics.OutputOhm <= g.maxOut})
+	}
+	if g.maxLoss > 0 {
+		res.Limits = append(res.Limits, LimitCheck{Name: "loss at 1 kHz", Key: "limits.max_loss_db", Unit: "dB", Limit: g.maxLoss,
+			Ideal: -res.IdealMetrics.Gain1kDB, Achieved: -res.Metrics.Gain1kDB,
+			IdealMet: -res.IdealMetrics.Gain1kDB <= g.maxLoss+0.05, Met: -res.Metrics.Gain1kDB <= g.maxLoss})
+	}
+	for _, l := range res.Limits {
+		res.Met = res.Met && l.Met
+	}
+	res.Starts, res.Prefer = r.starts, g.prefer.String()
+	for k, rw := range g.rows {
+		if rw.figure == "rms" {
+			res.Curves = append(res.Curves, CurveFit{Setting: g.items[rw.item].label(), RMSDB: res.Metrics.Figures[k],
+				WorstDB: res.Metrics.Worst[k], OffsetDB: res.Metrics.Offset[k]})
+		}
+	}
+	if !res.Feasible {
+		var held []string
+		for _, c := range res.Checks {
+			if c.IdealMet {
+				held = append(held, c.Name)
+			}
+		}
+		for _, c := range res.Checks {
+			if !c.IdealMet {
+				res.Conflicts = append(res.Conflicts, Conflict{Target: c.Name, Key: c.Key, Unit: c.Unit, Wanted: c.Wanted,
+					Nearest: c.Ideal, Found: c.IdealFound, Held: held})
+			}
+		}
 	}
 	return res
 }
@@ -146,6 +259,9 @@ func (r *run) build(base *networks.Design, g goal, vals []float64) (*networks.De
 
 // checks compares the metrics with the goal.
 func checks(g goal, ideal, got *Metrics, tol Tolerance) []Check {
+	if len(g.items) > 0 {
+		return itemChecks(g, ideal, got, tol)
+	}
 	var cs []Check
 	freq := func(name, key string, want, a float64, af bool, b float64, bf bool) {
 		c := Check{Name: name, Key: key, Unit: "Hz", Wanted: want, Ideal: a, IdealFound: af, Achieved: b, Found: bf}

@@ -22,6 +22,9 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 	if err != nil {
 		return nil, p.place(err)
 	}
+	if err := p.Limits.apply(s); err != nil {
+		return nil, p.place(err)
+	}
 	base, err := p.design()
 	if err != nil {
 		return nil, p.place(err)
@@ -30,6 +33,13 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 	if err != nil {
 		return nil, p.place(err)
 	}
+	g.prefer = opt.Prefer
+	if p.Prefer != nil { // the targets file's choice (or the command's)
+		g.prefer = *p.Prefer
+	}
+	g.effort = opt.Effort
+	g.maxOut, g.maxLoss = p.Limits.MaxOutputImpedance, p.Limits.MaxLossDB
+	g.priority = p.Priority
 	vars, err := p.variables(base, s)
 	if err != nil {
 		return nil, p.place(err)
@@ -71,7 +81,9 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 			}
 		}
 	}
-	if p.From != nil {
+	if p.From != nil && !g.hasCurve() {
+		// (A curve fit wants the least error, not the fewest swaps
+		// within tolerance.)
 		best = prune(base, g, best, tol)
 	}
 	// A limited re-voicing that misses: would the design meet the targets
@@ -81,11 +93,44 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 		pr.total += runEstimate(len(vars), false)
 		free = prune(base, g, unlimited(base, g, vars, s, rng, pr, tol, []*run{best}), tol)
 	}
-	pr.done()
+	// A re-voicing whose free parts miss: would freeing every part meet
+	// the targets? Then --free is the cause, and that search gives the
+	// nearest figures with the changes they need.
+	var freed *run
+	var freedP *Problem
+	if p.From != nil && p.Free != nil && !best.met && (free == nil || !free.met) {
+		q := *p
+		q.Free = nil
+		if all, err := q.variables(base, s); err == nil && len(all) > len(vars) {
+			pr.total += runEstimate(len(all), false)
+			freed = prune(base, g, unlimited(base, g, all, s, rng, pr, tol, nil), tol)
+			freedP = &q
+		}
+	}
 	res := best.result(p, base, g, tol, 0)
 	if free != nil {
 		res.Unlimited = free.result(p, base, g, tol, 0)
 	}
+	if freed != nil {
+		res.Freed = freed.result(freedP, base, g, tol, 0)
+	}
+	// Ideal values that sit at a range limit: would wider ranges meet the
+	// targets? Then the range is the cause.
+	res.AtLimit = atLimits(best, s)
+	if !res.Feasible && len(res.AtLimit) > 0 {
+		ws := s.widened(rangeWidening)
+		if wv, err := p.variables(base, ws); err == nil {
+			pr.total += runEstimate(len(wv), p.From == nil)
+			var wr *run
+			if p.From == nil {
+				wr = solveRun(base, g, wv, true, ws, rng, pr, tol, nil)
+			} else {
+				wr = unlimited(base, g, wv, ws, rng, pr, tol, nil)
+			}
+			res.Widened = wr.result(p, base, g, tol, 0)
+		}
+	}
+	pr.done()
 	res.Evaluations = pr.evals
 	if limited {
 		res.MaxChanges = p.MaxChanges
@@ -112,19 +157,81 @@ const (
 	// Problem.MaxChanges; without the limit the ideal values meet them
 	// (Result.Unlimited is that search).
 	CauseMaxChanges = "max-changes"
+	// CauseFree: the parts --free leaves free cannot reach the targets;
+	// with every part free they can (Result.Freed is that search).
+	CauseFree = "free"
+	// CauseRange: the ideal values miss with a part at a range limit
+	// (Result.AtLimit); with every range widened a hundredfold they
+	// meet the targets (Result.Widened is that search).
+	CauseRange = "range"
+	// CauseLimit: the chosen parts meet the targets only by breaking a
+	// limit (Result.Limits says which).
+	CauseLimit = "limit"
 )
 
 // cause says why res misses, "" when it does not.
 func cause(res *Result) string {
+	helps := func(r *Result) bool { return r != nil && (r.Met || r.Feasible && !res.Feasible) }
 	switch {
 	case res.Met:
 		return ""
-	case res.Unlimited != nil && (res.Unlimited.Met || res.Unlimited.Feasible && !res.Feasible):
+	case helps(res.Unlimited):
 		return CauseMaxChanges
+	case helps(res.Freed):
+		return CauseFree
+	case res.Feasible && !res.LimitsMet():
+		return CauseLimit
+	case res.Widened != nil && res.Widened.Feasible:
+		return CauseRange
 	case res.Feasible:
 		return CauseParts
 	}
 	return CauseNetwork
+}
+
+// rangeWidening is the factor by which the check of a binding range
+// widens every range, either way.
+const rangeWidening = 100
+
+// widened returns the sets with every continuous range widened by the
+// factor either way (the series are not limited by a range there; a list
+// or a stock keeps its members).
+func (s *sets) widened(k float64) *sets {
+	w := *s
+	w.resRange = [2]float64{s.resRange[0] / k, s.resRange[1] * k}
+	w.capRange = [2]float64{s.capRange[0] / k, s.capRange[1] * k}
+	w.potRange = [2]float64{s.potRange[0] / k, s.potRange[1] * k}
+	return &w
+}
+
+// atLimits lists the free parts whose ideal value sits at a limit of its
+// continuous range.
+func atLimits(r *run, s *sets) []AtLimit {
+	key := map[networks.PartKind]string{networks.PartResistor: "parts.resistor_range",
+		networks.PartCapacitor: "parts.capacitor_range", networks.PartPot: "parts.pots"}
+	var out []AtLimit
+	for i, v := range r.vars {
+		x := math.Log(r.ideal[i])
+		_, _, rg := s.of(v.kind)
+		// The range's own figures, not their logs' round trip.
+		exact := func(lg float64) float64 {
+			for _, b := range rg {
+				if math.Abs(math.Log(b)-lg) < 1e-9 {
+					return b
+				}
+			}
+			return math.Exp(lg)
+		}
+		switch {
+		case !(v.lo < v.hi):
+			out = append(out, AtLimit{Kind: v.kind, Part: v.name, Value: exact(v.lo), Limit: "pinned", Key: key[v.kind]})
+		case x <= v.lo+1e-3:
+			out = append(out, AtLimit{Kind: v.kind, Part: v.name, Value: exact(v.lo), Limit: "low", Key: key[v.kind]})
+		case x >= v.hi-1e-3:
+			out = append(out, AtLimit{Kind: v.kind, Part: v.name, Value: exact(v.hi), Limit: "high", Key: key[v.kind]})
+		}
+	}
+	return out
 }
 
 // unlimited searches a re-voicing over every free part at once. A search
@@ -242,6 +349,7 @@ type run struct {
 	cost   float64   // of the chosen values
 	misses int       // targets the chosen values miss (beyond the tolerance)
 	met    bool      // misses == 0
+	starts int       // starts of the rescue; 0 when the first search met the targets
 }
 
 // solveRun searches one set of variables: the continuous stage from the
@@ -262,17 +370,55 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 		seeds = append([][]float64{e.values(nil)}, extra...)
 	}
 	x, _ := continuous(e, seeds, tune, rng)
-	if fresh {
+	if fresh && g.prefer == LeastLoss {
 		// The second phase: the least loss among the designs that meet
-		// the targets.
+		// the targets. (For the closest design the walk starts from the
+		// first phase's point: the least-loss designs crowd the ends of
+		// the part ranges, where few allowed values lie near.)
 		x = lean(e, x, logValues(freshSeeds(e.d, g, s, leanSectionRatios)))
+	}
+	// Before a verdict that the ideal parts miss, many more starts.
+	starts := 0
+	if !onTargets(e, x) {
+		var rs [][]float64
+		if fresh {
+			rs = freshSeeds(e.d, g, s, sectionRatios)
+		}
+		rc := rescue(e, x, rs)
+		starts = rc.starts
+		x = rc.x
+		if rc.met && fresh {
+			x = lean(e, x, nil)
+		}
+		if !rc.met {
+			// The parts of allowed values keep the same priority, on
+			// their misses beyond the tolerance.
+			e.weights = priorityWeights(g.ranks())
+			if fresh {
+				// (A re-voicing's runs of single parts are starts
+				// for the joint one, which the pruning pass trims;
+				// they keep the plain weights.)
+				e.slack = slackOf(g, tol)
+			}
+		}
 	}
 	e.setLog(x)
 	ideal := e.values(nil)
-	chosen, cost := discrete(e, ideal)
+	var chosen []float64
+	var cost float64
+	walked := false
+	if fresh {
+		// Walk the allowed values along the exact solutions.
+		if vals, ok := walk(e, ideal, tol, g.prefer, g.effort); ok {
+			chosen, cost, walked = vals, e.at(vals), true
+		}
+	}
+	if !walked {
+		chosen, cost = discrete(e, ideal)
+	}
 	// A second try at the snap, when the joint one misses the tolerance
 	// but the ideal values meet it (else no snap will).
-	if !meets(e, chosen, PartsTolerance) && meets(e, ideal, PartsTolerance) {
+	if !walked && !meets(e, chosen, PartsTolerance) && meets(e, ideal, PartsTolerance) {
 		if c2, f2 := snapSequential(e, ideal); f2 < cost {
 			chosen, cost = c2, f2
 		}
@@ -290,7 +436,16 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 	}
 	pr.evals += e.evals
 	pr.cur = 0
-	return &run{vars: vars, ideal: ideal, chosen: chosen, cost: cost, misses: miss, met: miss == 0}
+	return &run{vars: vars, ideal: ideal, chosen: chosen, cost: cost, misses: miss, met: miss == 0, starts: starts}
+}
+
+// onTargets reports whether the variables at x (log values) meet every
+// target within IdealTolerance.
+func onTargets(e *evaluator, x []float64) bool {
+	e.setLog(x)
+	var m Metrics
+	e.measure(&m)
+	return e.worst(&m) <= 1
 }
 
 // allowed reports whether every value of vals is one the variable may
@@ -483,5 +638,66 @@ func misses(e *evaluator, vals []float64, tol Tolerance) int {
 			n++
 		}
 	}
+	if e.overLimits(&m) > 0 {
+		n++
+	}
 	return n
+}
+
+// apply checks the limits and raises the capacitor range to the smallest
+// capacitor allowed.
+func (l *Limits) apply(s *sets) error {
+	if !(l.MaxOutputImpedance >= 0) || math.IsInf(l.MaxOutputImpedance, 0) {
+		return fieldErrorf("limits.max_output_impedance", "%v Ω: give a positive impedance, such as 10k, or leave it out", l.MaxOutputImpedance)
+	}
+	if !(l.MaxLossDB >= 0) || math.IsInf(l.MaxLossDB, 0) {
+		return fieldErrorf("limits.max_loss_db", "%v dB: give the largest loss at 1 kHz as a positive number of dB, such as 20, or leave it out", l.MaxLossDB)
+	}
+	minC := DefaultMinCapacitor
+	if l.MinCapacitor != nil {
+		minC = *l.MinCapacitor
+		if !(minC > 0) || math.IsInf(minC, 0) {
+			return fieldErrorf("limits.min_capacitor", "%v F: give a positive capacitance, such as 100p", minC)
+		}
+	}
+	if minC > s.capRange[1] {
+		return fieldErrorf("limits.min_capacitor", "%sF is above the capacitor range's top (%sF): lower the limit or raise parts.capacitor_range",
+			eseries.Format(minC), eseries.Format(s.capRange[1]))
+	}
+	if minC > s.capRange[0] {
+		s.capRange[0] = minC
+		if _, err := eseries.SnapTo(eseries.Range(s.caps, minC, s.capRange[1]), minC); err != nil {
+			return fieldErrorf("limits.min_capacitor", "no capacitor of %s lies between %sF and %sF", s.capName, eseries.Format(minC), eseries.Format(s.capRange[1]))
+		}
+		s.caps = eseries.Range(s.caps, minC, s.capRange[1])
+	}
+	return nil
+}
+
+// slackOf is each target's tolerance tol in units of IdealTolerance, in
+// the order of evaluator.targetErrors.
+func slackOf(g goal, tol Tolerance) []float64 {
+	var out []float64
+	freq := func(f bool) {
+		if f {
+			out = append(out, math.Log1p(tol.Freq)/IdealTolerance.Freq)
+		} else {
+			out = append(out, tol.Level/IdealTolerance.Level)
+		}
+	}
+	if len(g.rows) > 0 {
+		for _, r := range g.rows {
+			freq(r.unit == "Hz")
+		}
+		return out
+	}
+	if g.scoop {
+		freq(true)
+		freq(false)
+		freq(false)
+	}
+	if g.corner {
+		freq(true)
+	}
+	return out
 }

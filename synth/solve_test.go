@@ -159,8 +159,6 @@ func TestInfeasible(t *testing.T) {
 		tg   Targets
 		miss string
 	}{
-		// A corner past 10 × band top: the metric finds no corner at all.
-		{"corner past 10 × band top", Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-10.0), CornerHz: ptr(400e3)}, "corner"},
 		// A 50 dB dip at 40 Hz: the lower shoulder would lie below the band.
 		{"too deep for the band", Targets{ScoopHz: ptr(40.0), DepthDB: ptr(-50.0), CornerHz: ptr(10e3)}, "scoop depth"},
 		// The legs' loading cannot tilt the shoulders by 60 dB.
@@ -206,7 +204,7 @@ func TestRevoiceOneCapacitor(t *testing.T) {
 	if !r.Met {
 		t.Errorf("not met: %+v", r.Checks)
 	}
-	want := []Change{{Part: "lowpass.c", Role: "blend low-pass leg C", From: 10e-9, To: 15e-9}}
+	want := []Change{{Part: "lowpass.c", Role: "blend low-pass leg C", From: 10e-9, To: 15e-9, Kind: networks.PartCapacitor}}
 	if !reflect.DeepEqual(r.Changes, want) {
 		t.Errorf("changes %+v, want %+v", r.Changes, want)
 	}
@@ -247,6 +245,10 @@ func TestProblemErrors(t *testing.T) {
 		{"no depth", Problem{Targets: Targets{ScoopHz: ptr(800.0), CornerHz: ptr(5e3)}}, "targets.scoop: a fresh synthesis needs"},
 		{"no corner", Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-10.0)}}, "targets.corner_hz"},
 		{"scoop outside band", Problem{Targets: Targets{ScoopHz: ptr(30e3), DepthDB: ptr(-10.0), CornerHz: ptr(5e3)}}, "outside the band"},
+		{"corner past 10 × band top", Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-10.0), CornerHz: ptr(400e3)}}, "outside what the corner can measure"},
+		{"corner of 1e30 Hz", Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-10.0), CornerHz: ptr(1e30)}}, "targets.corner_hz"},
+		{"corner below the band", Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-10.0), CornerHz: ptr(10.0)}}, "targets.corner_hz"},
+		{"zero depth", Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(0.0), CornerHz: ptr(5e3)}}, "targets.scoop.depth_db"},
 		{"positive depth", Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(3.0), CornerHz: ptr(5e3)}}, "targets.scoop.depth_db"},
 		{"knob", Problem{Targets: Targets{ScoopHz: ptr(800.0), DepthDB: ptr(-3.0), CornerHz: ptr(5e3), At: ptr(2.0)}}, "targets.scoop.at"},
 		{"unknown part", Problem{From: d, Free: []string{"lowpass.x"}}, `unknown part "lowpass.x"`},

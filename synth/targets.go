@@ -31,6 +31,8 @@ func LoadTargets(path string) (*Problem, error) {
 //	targets:
 //	  scoop: {hz: 800, depth_db: -10, balance_db: 0, at: 0.5}
 //	  corner_hz: 5k                      # at knob 1
+//	  curve: voice.csv                   # or a whole curve (re-voicing), as analyze --csv writes it
+//	  fit_level: true                    # a curve's overall level goes free
 //	source: {impedance: 6.8k}            # also series_c
 //	load: {r: 1M, c: 0}                  # r may be open
 //	filters: 2                           # identical RC low-pass sections
@@ -42,6 +44,11 @@ func LoadTargets(path string) (*Problem, error) {
 //	  resistor_range: [1k, 1M]
 //	  capacitor_range: [100p, 1u]
 //	  stock: stock.yaml                  # only the values listed there
+//	limits:                              # practical limits, each optional
+//	  max_output_impedance: 10k          # |Z| back into the output at 1 kHz
+//	  min_capacitor: 100p                # the default
+//	  max_loss_db: 20                    # insertion loss at 1 kHz, knob 0.5
+//	priority: hz+corner,depth,balance    # kept first when not all can be met
 //
 // Every error is a *networks.FieldError naming the file, line and key.
 // Errors Solve finds later in the problem are placed on the same lines.
@@ -114,6 +121,11 @@ func ParseTargets(data []byte, name string) (*Problem, error) {
 			return nil
 		}},
 		networks.Key{Name: "targets", Decode: func(n *yaml.Node, path string) error {
+			if n.Kind == yaml.SequenceNode {
+				items, err := parseItems(dec, n, path)
+				p.Items = items
+				return err
+			}
 			return dec.Map(n, path,
 				networks.Key{Name: "scoop", Decode: func(n *yaml.Node, path string) error {
 					return dec.Map(n, path,
@@ -122,7 +134,36 @@ func ParseTargets(data []byte, name string) (*Problem, error) {
 						networks.Key{Name: "balance_db", Decode: number(&t.BalanceDB, anyDB)},
 						networks.Key{Name: "at", Decode: number(&t.At, knob)})
 				}},
-				networks.Key{Name: "corner_hz", Decode: value(&t.CornerHz, positiveHz)})
+				networks.Key{Name: "corner_hz", Decode: value(&t.CornerHz, positiveHz)},
+				networks.Key{Name: "curve", Decode: func(n *yaml.Node, path string) error {
+					f, err := dec.String(n, path)
+					if err != nil {
+						return err
+					}
+					if !filepath.IsAbs(f) {
+						f = filepath.Join(filepath.Dir(name), f)
+					}
+					c, err := LoadCurve(f)
+					if err != nil {
+						return dec.Errorf(n, path, "%v", err)
+					}
+					p.Curve = c
+					return nil
+				}},
+				networks.Key{Name: "fit_level", Decode: func(n *yaml.Node, path string) error {
+					v, err := dec.String(n, path)
+					if err != nil {
+						return err
+					}
+					switch v {
+					case "true":
+						p.FitLevel = true
+					case "false":
+					default:
+						return dec.Errorf(n, path, "%q: give true (an overall level offset goes free) or false", v)
+					}
+					return nil
+				}})
 		}},
 		networks.Key{Name: "source", Decode: func(n *yaml.Node, path string) error {
 			p.Source = &networks.Source{}
@@ -146,6 +187,58 @@ func ParseTargets(data []byte, name string) (*Problem, error) {
 		networks.Key{Name: "level", Decode: func(n *yaml.Node, path string) error {
 			p.Level = &networks.LevelSetting{}
 			return dec.Level(n, path, p.Level)
+		}},
+		networks.Key{Name: "limits", Decode: func(n *yaml.Node, path string) error {
+			l := &p.Limits
+			return dec.Map(n, path,
+				networks.Key{Name: "max_output_impedance", Decode: func(n *yaml.Node, path string) error {
+					v, err := dec.ValueIn(n, path, "Ω")
+					if err == nil && !(v > 0) {
+						err = dec.Errorf(n, path, "%v Ω: give a positive impedance, such as 10k", v)
+					}
+					l.MaxOutputImpedance = v
+					return err
+				}},
+				networks.Key{Name: "min_capacitor", Decode: func(n *yaml.Node, path string) error {
+					v, err := dec.ValueIn(n, path, "F")
+					if err == nil && !(v > 0) {
+						err = dec.Errorf(n, path, "%v F: give a positive capacitance, such as 100p", v)
+					}
+					l.MinCapacitor = &v
+					return err
+				}},
+				networks.Key{Name: "max_loss_db", Decode: func(n *yaml.Node, path string) error {
+					v, err := dec.Number(n, path)
+					if err == nil && !(v > 0) {
+						err = dec.Errorf(n, path, "%v dB: give the largest loss at 1 kHz as a positive number of dB, such as 20", v)
+					}
+					l.MaxLossDB = v
+					return err
+				}})
+		}},
+		networks.Key{Name: "prefer", Decode: func(n *yaml.Node, path string) error {
+			str, err := dec.String(n, path)
+			if err != nil {
+				return err
+			}
+			pr, perr := ParsePrefer(str)
+			if perr != nil {
+				return dec.Errorf(n, path, "%v", perr)
+			}
+			p.Prefer = &pr
+			return nil
+		}},
+		networks.Key{Name: "priority", Decode: func(n *yaml.Node, path string) error {
+			str, err := dec.String(n, path)
+			if err != nil {
+				return err
+			}
+			pr, perr := ParsePriority(str)
+			if perr != nil {
+				return dec.Errorf(n, path, "%v", perr)
+			}
+			p.Priority = pr
+			return nil
 		}},
 		networks.Key{Name: "parts", Decode: func(n *yaml.Node, path string) error {
 			return dec.Map(n, path,

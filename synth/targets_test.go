@@ -37,7 +37,7 @@ func TestParseTargetsErrors(t *testing.T) {
 	for _, c := range []struct {
 		name, text, want string
 	}{
-		{"unknown key", "targets:\n  scoop: {hz: 800, depth_db: -10}\n  conrer_hz: 5k\n", `t.yaml:3: targets.conrer_hz: unknown key "conrer_hz": accepted keys here are corner_hz, scoop`},
+		{"unknown key", "targets:\n  scoop: {hz: 800, depth_db: -10}\n  conrer_hz: 5k\n", `t.yaml:3: targets.conrer_hz: unknown key "conrer_hz": accepted keys here are corner_hz, curve, fit_level, scoop`},
 		{"bad value", "targets:\n  scoop: {hz: 8x0, depth_db: -10}\n", "t.yaml:2: targets.scoop.hz:"},
 		{"positive depth", "targets:\n  scoop: {hz: 800, depth_db: 4}\n", "t.yaml:2: targets.scoop.depth_db: 4 dB: a scoop's depth is negative"},
 		{"knob", "targets:\n  scoop: {hz: 800, depth_db: -4, at: 1.5}\n", "t.yaml:2: targets.scoop.at: knob position 1.5 is outside 0..1"},
@@ -89,4 +89,33 @@ func asFieldError(err error, fe **networks.FieldError) bool {
 	e, ok := err.(*networks.FieldError)
 	*fe = e
 	return ok
+}
+
+// The list form of the targets file reads each figure with its knobs; bad
+// entries name the line and key.
+func TestParseTargetsList(t *testing.T) {
+	p, err := ParseTargets([]byte(`targets:
+  - {knobs: {blend: 0.5}, scoop: {hz: 700, depth_db: -8, balance_db: 0}}
+  - {knobs: {blend: 1}, corner_hz: 9k}
+  - {knobs: {treble: 1, bass: 0}, gain_db: {hz: 5k, db: -3}}
+  - {knobs: {mid: 0.5}, peak: {hz: 500, height_db: 4}}
+  - {knobs: {treble: 0}, low_corner_hz: 80}
+`), "list.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(p.Items) != 5 || p.Items[1].Kind != ItemCorner || p.Items[1].Hz != 9e3 || p.Items[2].Knobs["bass"] != 0 || p.Items[3].HeightDB != 4 {
+		t.Errorf("items %+v", p.Items)
+	}
+	for _, c := range []struct{ in, want string }{
+		{"targets:\n  - {knobs: {blend: 2}, corner_hz: 9k}\n", "list.yaml:2: targets[0].knobs.blend: knob position 2 is outside 0..1"},
+		{"targets:\n  - {knobs: {blend: 1}, corner_hz: 9k, low_corner_hz: 80}\n", "give exactly one figure per entry"},
+		{"targets:\n  - {scoop: {hz: 700}}\n", "needs hz and depth_db"},
+		{"targets: []\n", "the list is empty"},
+	} {
+		_, err := ParseTargets([]byte(c.in), "list.yaml")
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%q: error %v, want %q", c.in, err, c.want)
+		}
+	}
 }

@@ -158,12 +158,15 @@ func TestRevoicePlotShowsOriginal(t *testing.T) {
 	changed := d.Clone()
 	changed.Tone.Lowpass.C *= 1.5
 	res := &synth.Result{Design: changed}
-	b := synthBode(res, d)
+	b, err := synthBode(res, &synth.Problem{From: d})
+	if err != nil {
+		t.Fatal(err)
+	}
 	last := b.Curves[len(b.Curves)-1]
 	if !last.Dash || !strings.Contains(last.Label, "original design") {
 		t.Errorf("re-voicing plot: last curve %q (dashed %v), want the original design dashed", last.Label, last.Dash)
 	}
-	if b := synthBode(res, nil); strings.Contains(b.Curves[len(b.Curves)-1].Label, "original") {
+	if b, _ := synthBode(res, nil); strings.Contains(b.Curves[len(b.Curves)-1].Label, "original") {
 		t.Errorf("a fresh synthesis plot shows an original design")
 	}
 }

@@ -31,9 +31,15 @@ type synthFlags struct {
 	resistors, capacitors, pots, stock  string
 	from, free                          string
 	maxChanges                          int
+	prefer, priority                    string
+	curve                               string
+	fitLevel                            bool
+	knobs                               []string
+	maxOut, minCap, maxLoss             string
 	out, plot                           string
 	json                                bool
 	seed                                uint64
+	effort                              int
 }
 
 func newSynthCmd(a *app) *cobra.Command {
@@ -90,6 +96,15 @@ design is still reported and written).`,
 	fl.StringVar(&f.plot, "plot", "", "draw the chosen design with the targets to `FILE` (.png or .svg)")
 	fl.BoolVar(&f.json, "json", false, "print targets, ideal and chosen designs and the analysis as JSON")
 	fl.Uint64Var(&f.seed, "seed", 0, "seed of the search's random starts")
+	fl.IntVar(&f.effort, "effort", 1, "how widely the standard values are searched: 1, 2 or 3 (the README gives what each costs)")
+	fl.StringVar(&f.prefer, "prefer", "closest", "among the designs within tolerance: closest (figures nearest the targets) or loss (least loss at 1 kHz)")
+	fl.StringVar(&f.curve, "curve", "", "re-voicing: fit the whole curve in `FILE.csv` (hz and db_at_SETTING columns as analyze --csv writes them, or hz,db)")
+	fl.BoolVar(&f.fitLevel, "fit-level", false, "curve: let an overall level offset go free (a measured curve's gain is unknown)")
+	fl.StringArrayVar(&f.knobs, "knob", nil, "curve: the knob setting of a measured hz,db curve: `NAME=P` (repeat for more knobs)")
+	fl.StringVar(&f.maxOut, "max-output-impedance", "", "limit: |Z| looking back into the output at 1 kHz (knob at --at), e.g. 10k")
+	fl.StringVar(&f.minCap, "min-capacitor", "", "limit: the smallest capacitor chosen (default 100p)")
+	fl.StringVar(&f.maxLoss, "max-loss", "", "limit: the insertion loss at 1 kHz (knob 0.5) in dB, e.g. 20")
+	fl.StringVar(&f.priority, "priority", "", "targets kept first when they cannot all be met, e.g. hz+corner,depth,balance (the default)")
 	return c
 }
 
@@ -143,7 +158,17 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		}
 	}
 
-	opt := synth.Options{Seed: f.seed}
+	if f.effort < 1 || f.effort > 3 {
+		return usageErrorf("--effort %d: give 1 (the default), 2 or 3", f.effort)
+	}
+	opt := synth.Options{Seed: f.seed, Effort: f.effort}
+	pr, err := synth.ParsePrefer(f.prefer)
+	if err != nil {
+		return usageErrorf("--prefer %v", err)
+	}
+	if cmd.Flags().Changed("prefer") || p.Prefer == nil {
+		p.Prefer = &pr // the flag wins over the file
+	}
 	var bar *progressbar.ProgressBar
 	if a.tty {
 		bar = progressbar.NewOptions(1, progressbar.OptionSetWriter(a.err), progressbar.OptionSetDescription("synth"),
@@ -167,7 +192,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		}
 	}
 	if f.plot != "" {
-		if err := plotSynth(res, p.From, f.plot, inputs...); err != nil {
+		if err := plotSynth(res, p, f.plot, inputs...); err != nil {
 			return err
 		}
 	}
@@ -178,7 +203,8 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		}
 		if err := printJSON(a.out, synthJSON{Targets: res.Targets, Ideal: synth.NewDesignJSON(res.Ideal),
 			Design: synth.NewDesignJSON(res.Design), Achieved: an, Met: res.Met, Feasible: res.Feasible,
-			Parts: res.Parts, Checks: res.Checks, Changes: nonNil(res.Changes)}); err != nil {
+			Parts: res.Parts, Checks: res.Checks, Changes: nonNil(res.Changes), Prefer: res.Prefer, Cause: res.Cause,
+			Starts: res.Starts, Conflict: res.Conflicts, AtLimit: res.AtLimit, Limits: res.Limits, Curves: res.Curves}); err != nil {
 			return err
 		}
 	} else {
@@ -207,6 +233,13 @@ type synthJSON struct {
 	Parts    []synth.Choice     `json:"parts"`
 	Checks   []synth.Check      `json:"checks"`
 	Changes  []synth.Change     `json:"changes"`
+	Prefer   string             `json:"prefer"`
+	Cause    string             `json:"cause,omitempty"`
+	Starts   int                `json:"starts,omitempty"`
+	Conflict []synth.Conflict   `json:"conflicts,omitempty"`
+	AtLimit  []synth.AtLimit    `json:"at_limit,omitempty"`
+	Limits   []synth.LimitCheck `json:"limits,omitempty"`
+	Curves   []synth.CurveFit   `json:"curves,omitempty"`
 }
 
 func nonNil(c []synth.Change) []synth.Change {
@@ -368,6 +401,64 @@ func applySynthFlags(cmd *cobra.Command, f *synthFlags, p *synth.Problem) error 
 			return usageErrorf("--free: no part named: give part names separated by commas, e.g. lowpass.c,highpass.c")
 		}
 	}
+	if set("max-output-impedance") {
+		v, err := flagValue("max-output-impedance", f.maxOut, "Ω")
+		if err != nil {
+			return err
+		}
+		if !(v > 0) {
+			return usageErrorf("--max-output-impedance %q: give a positive impedance, e.g. 10k", f.maxOut)
+		}
+		p.Limits.MaxOutputImpedance = v
+	}
+	if set("min-capacitor") {
+		v, err := flagValue("min-capacitor", f.minCap, "F")
+		if err != nil {
+			return err
+		}
+		if !(v > 0) {
+			return usageErrorf("--min-capacitor %q: give a positive capacitance, e.g. 100p", f.minCap)
+		}
+		p.Limits.MinCapacitor = &v
+	}
+	if v, e := number("max-loss", f.maxLoss); e != nil {
+		return e
+	} else if v != nil {
+		if !(*v > 0) {
+			return usageErrorf("--max-loss %s: give the largest loss at 1 kHz in dB, a positive number, e.g. 20", f.maxLoss)
+		}
+		p.Limits.MaxLossDB = *v
+	}
+	if set("curve") {
+		c, err := synth.LoadCurve(f.curve)
+		if err != nil {
+			return badInput(err)
+		}
+		p.Curve = c
+	}
+	if set("fit-level") {
+		p.FitLevel = f.fitLevel
+	}
+	if set("knob") {
+		p.CurveKnobs = map[string]float64{}
+		for _, k := range f.knobs {
+			l, err := networks.ParseKnobFlag(k)
+			if err != nil {
+				return usageErrorf("--knob %v", err)
+			}
+			if len(l.Positions) != 1 {
+				return usageErrorf("--knob %s: a measured curve has one setting: give one position, e.g. treble=0.3", k)
+			}
+			p.CurveKnobs[l.Name] = l.Positions[0]
+		}
+	}
+	if set("priority") {
+		pr, err := synth.ParsePriority(f.priority)
+		if err != nil {
+			return usageErrorf("--priority %q: %v", f.priority, err)
+		}
+		p.Priority = pr
+	}
 	if set("max-changes") {
 		if f.maxChanges < 0 {
 			return usageErrorf("--max-changes %d: give a number of parts, 1 or more (0: no limit)", f.maxChanges)
@@ -402,7 +493,7 @@ func stockWins(cmd *cobra.Command, p *synth.Problem) []string {
 }
 
 var flagExample = map[string]string{
-	"scoop-hz": "800 or 1.2k", "corner": "5k", "depth": "-10", "balance": "0 or +2", "at": "0.5",
+	"scoop-hz": "800 or 1.2k", "corner": "5k", "max-loss": "20", "depth": "-10", "balance": "0 or +2", "at": "0.5",
 }
 
 // flagSet reads a series name or a comma list of values.
@@ -442,10 +533,7 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 		fmt.Fprintln(tw, "part\trole\tideal\tchosen\tfrom\t")
 	}
 	for _, c := range res.Parts {
-		unit := "Ω"
-		if c.Kind == networks.PartCapacitor {
-			unit = "F"
-		}
+		unit := kindUnit(c.Kind)
 		ideal := withUnit(c.Ideal, 4, unit)
 		if !c.Free {
 			ideal = "—"
@@ -471,7 +559,9 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 	fmt.Fprintln(tw, "target\twanted\tideal parts\terror\tchosen parts\terror\t")
 	for _, c := range res.Checks {
 		name := c.Name
-		if strings.HasPrefix(name, "scoop") {
+		if strings.HasPrefix(c.Key, "targets[") || c.Key == "targets.curve" {
+			// The list form: the name carries its knob setting.
+		} else if strings.HasPrefix(name, "scoop") {
 			name += " (knob " + posLabel(at) + ")"
 		} else {
 			name += " (knob 1)"
@@ -488,11 +578,37 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 	fmt.Fprintf(w, "tolerances: ideal parts %.1f %% and %.1f dB, chosen parts %.0f %% and %.0f dB (* marks a miss)\n",
 		100*synth.IdealTolerance.Freq, synth.IdealTolerance.Level, 100*synth.PartsTolerance.Freq, synth.PartsTolerance.Level)
 
+	for _, c := range res.Curves {
+		line := fmt.Sprintf("curve fit (%s): RMS %.3f dB, worst %.3f dB", c.Setting, c.RMSDB, c.WorstDB)
+		if c.OffsetDB != 0 {
+			line += fmt.Sprintf(", level offset %+.2f dB taken out (--fit-level)", c.OffsetDB)
+		}
+		fmt.Fprintln(w, line)
+	}
+	for _, l := range res.Limits {
+		mark := ""
+		if !l.Met {
+			mark = " *"
+		}
+		fmt.Fprintf(w, "limit %s (%s): at most %s; ideal %s, chosen %s%s\n", l.Name, l.Key, limitFigure(l.Unit, l.Limit), limitFigure(l.Unit, l.Ideal), limitFigure(l.Unit, l.Achieved), mark)
+	}
+	if res.Prefer == "loss" {
+		fmt.Fprintln(w, "chosen: of the designs within tolerance, the one of least loss at 1 kHz (--prefer loss)")
+	} else {
+		fmt.Fprintln(w, "chosen: of the designs within tolerance, the one closest to the targets (--prefer closest)")
+	}
+	for _, l := range res.AtLimit {
+		fmt.Fprintf(w, "note: %s\n", atLimitLine(l))
+	}
+
 	if revoice {
 		fmt.Fprintln(w)
-		if len(res.Changes) == 0 {
+		switch {
+		case len(res.Changes) == 0 && res.Met:
 			fmt.Fprintln(w, "no part needs to change")
-		} else {
+		case len(res.Changes) == 0:
+			fmt.Fprintln(w, "no change of the free parts brings the missed targets closer")
+		default:
 			fmt.Fprintf(w, "swap %d %s:\n", len(res.Changes), plural(len(res.Changes), "part", "parts"))
 			for _, ch := range res.Changes {
 				fmt.Fprintf(w, "  %s\n", changeLine(ch))
@@ -521,24 +637,38 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 			}
 		case synth.CauseParts:
 			fmt.Fprintf(w, "%s\n", partsCause(res))
+		case synth.CauseFree:
+			fmt.Fprintf(w, "%s\n", freeCause(res))
+			if u := res.Freed; u != nil {
+				for _, ch := range u.Changes {
+					fmt.Fprintf(w, "  %s\n", changeLine(ch))
+				}
+			}
+		case synth.CauseRange:
+			fmt.Fprintf(w, "%s\n", rangeCause(res))
+		case synth.CauseLimit:
+			fmt.Fprintf(w, "%s\n", limitBreak(res))
 		default:
 			if held := heldParts(res); len(held) > 0 {
-				fmt.Fprintf(w, "the ideal values of the free parts miss too: with %s held as they are, these targets are out of reach;\n", strings.Join(held, ", "))
-				fmt.Fprintln(w, "free more parts (--free) to see what the whole network can give; the ideal column shows the nearest achievable figures")
-				break
+				fmt.Fprintf(w, "the ideal values of the free parts miss too: with %s held as they are (--free), no design within the tolerance was found;\n", strings.Join(held, ", "))
+				fmt.Fprintln(w, "the ideal column shows the nearest figures found")
+			} else {
+				fmt.Fprintf(w, "the ideal parts miss too: %s;\n", searchSaid(res))
+				fmt.Fprintln(w, "the ideal column shows the nearest figures found")
 			}
-			fmt.Fprintln(w, "the ideal parts miss too: these targets ask for more than the network, band and surroundings can give;")
-			fmt.Fprintln(w, "the ideal column shows the nearest achievable figures")
+		}
+		for _, c := range res.Conflicts {
+			fmt.Fprintf(w, "  %s\n", conflictLine(c, res.Checks))
+		}
+		if len(res.Conflicts) > 0 {
+			fmt.Fprintln(w, "targets kept first: scoop frequency and corner, then depth, then balance, unless --priority says otherwise")
 		}
 	}
 }
 
 // changeLine is one swap: part (role): from → to.
 func changeLine(ch synth.Change) string {
-	unit := "Ω"
-	if strings.HasSuffix(ch.Part, ".c") {
-		unit = "F"
-	}
+	unit := kindUnit(ch.Kind)
 	was := "(new)"
 	if ch.From > 0 {
 		was = withUnit(ch.From, 3, unit)
@@ -662,6 +792,9 @@ func unmetMessage(res *synth.Result) string {
 		}
 	}
 	msg := "targets not met: " + strings.Join(missed, ", ")
+	if len(missed) == 0 {
+		msg = "limits broken"
+	}
 	switch res.Cause {
 	case synth.CauseMaxChanges:
 		msg += " (" + limitCause(res)
@@ -675,14 +808,129 @@ func unmetMessage(res *synth.Result) string {
 		msg += ")"
 	case synth.CauseParts:
 		msg += " (" + partsCause(res) + ")"
+	case synth.CauseFree:
+		msg += " (" + freeCause(res)
+		if u := res.Freed; u != nil && u.Met {
+			var sw []string
+			for _, ch := range u.Changes {
+				sw = append(sw, ch.Part)
+			}
+			msg += " " + strings.Join(sw, ", ")
+		}
+		msg += ")"
+	case synth.CauseRange:
+		msg += " (" + rangeCause(res) + ")"
+	case synth.CauseLimit:
+		msg += " (" + limitBreak(res) + ")"
 	default:
 		if held := heldParts(res); len(held) > 0 {
-			msg += " (out of reach with " + strings.Join(held, ", ") + " held; free more parts with --free)"
+			msg += " (no design within the tolerance found with " + strings.Join(held, ", ") + " held by --free)"
 			break
 		}
-		msg += " (beyond what this network can give; see the nearest achievable figures above)"
+		msg += " (" + searchSaid(res) + "; see the nearest figures above)"
 	}
 	return msg
+}
+
+// searchSaid says what the verdict that the ideal parts miss rests on.
+func searchSaid(res *synth.Result) string {
+	if res.Starts > 0 {
+		return fmt.Sprintf("no design within the tolerance was found in %d starts (physics seeds, random starts over every part, each pot value) pulled onto the targets by least squares", res.Starts)
+	}
+	return "no design within the tolerance was found"
+}
+
+// conflictLine says how near a missed target comes while the targets met
+// are kept.
+func conflictLine(c synth.Conflict, checks []synth.Check) string {
+	near := "none found"
+	if c.Found {
+		near = figure(c.Unit, c.Nearest, true)
+	}
+	if len(c.Held) == 0 {
+		return fmt.Sprintf("%s: wanted %s, nearest found %s", c.Target, figure(c.Unit, c.Wanted, true), near)
+	}
+	var hs []string
+	for _, name := range c.Held {
+		h := name
+		for _, ch := range checks {
+			if ch.Name == name {
+				h += " at " + figure(ch.Unit, ch.Wanted, true)
+			}
+		}
+		hs = append(hs, h)
+	}
+	held := strings.Join(hs, ", ")
+	if k := len(hs); k > 1 {
+		held = strings.Join(hs[:k-1], ", ") + " and " + hs[k-1]
+	}
+	return fmt.Sprintf("%s: wanted %s; the nearest that keeps the %s is %s", c.Target, figure(c.Unit, c.Wanted, true), held, near)
+}
+
+// atLimitLine flags an ideal value at a limit of its range.
+func atLimitLine(l synth.AtLimit) string {
+	unit := kindUnit(l.Kind)
+	switch l.Limit {
+	case "pinned":
+		return fmt.Sprintf("%s is pinned at %s by %s (a range of one value)", l.Part, withUnit(l.Value, 3, unit), l.Key)
+	case "low":
+		return fmt.Sprintf("the ideal %s sits at the low end of %s (%s)", l.Part, l.Key, withUnit(l.Value, 3, unit))
+	}
+	return fmt.Sprintf("the ideal %s sits at the high end of %s (%s)", l.Part, l.Key, withUnit(l.Value, 3, unit))
+}
+
+// rangeCause blames the ranges the ideal values sit at, and says what
+// wider ranges give.
+func rangeCause(res *synth.Result) string {
+	var parts []string
+	for _, l := range res.AtLimit {
+		parts = append(parts, fmt.Sprintf("%s at %s (%s)", l.Part, withUnit(l.Value, 3, kindUnit(l.Kind)), l.Key))
+	}
+	msg := "the part ranges bind: " + strings.Join(parts, ", ")
+	if w := res.Widened; w != nil && w.Feasible {
+		var need []string
+		for _, l := range res.AtLimit {
+			name := l.Part
+			if strings.HasPrefix(name, "filters.") {
+				name = "filter1." + strings.TrimPrefix(name, "filters.") // the sections are tied
+			}
+			for _, c := range w.Parts {
+				if c.Name == name {
+					need = append(need, fmt.Sprintf("%s %s", l.Part, withUnit(c.Ideal, 3, kindUnit(c.Kind))))
+				}
+			}
+		}
+		msg += "; with every range widened 100× the ideal parts meet every target"
+		if len(need) > 0 {
+			msg += " (" + strings.Join(need, ", ") + ")"
+		}
+	}
+	return msg
+}
+
+// freeCause says that the parts --free left free cannot reach the targets.
+func freeCause(res *synth.Result) string {
+	held := heldParts(res)
+	u := res.Freed
+	msg := fmt.Sprintf("the free parts cannot reach the targets with %s held (--free)", strings.Join(held, ", "))
+	if u != nil && u.Met {
+		n := len(u.Changes)
+		msg += fmt.Sprintf("; with every part free, %d %s meet every target:", n, plural(n, "change", "changes"))
+	} else if u != nil {
+		msg += "; with every part free the ideal parts meet every target"
+	}
+	return msg
+}
+
+// kindUnit is the unit of a part's value.
+func kindUnit(k networks.PartKind) string {
+	switch k {
+	case networks.PartCapacitor:
+		return "F"
+	case networks.PartInductor:
+		return "H"
+	}
+	return "Ω"
 }
 
 // heldParts lists the parts a re-voicing kept fixed because --free left
@@ -699,15 +947,25 @@ func heldParts(res *synth.Result) []string {
 
 // plotSynth draws the chosen design at the standard knob positions with the
 // targets: the scoop as a cross at the wanted frequency and level on the
-// measured curve's shoulders, the corner as a dotted line. A re-voicing
-// (original not nil) adds the original design's curve at the scoop's knob
-// position, dashed.
-func plotSynth(res *synth.Result, original *networks.Design, path string, inputs ...string) error {
-	return synthBode(res, original).render(path, inputs...)
+// measured curve's shoulders, the corner as a dotted line. For a
+// re-voicing (p.From) the original design's curve at the scoop's knob
+// position is added, dashed black; for a curve target, the achieved curves
+// at its settings with the targets dashed. p may be nil (a fresh
+// synthesis).
+func plotSynth(res *synth.Result, p *synth.Problem, path string, inputs ...string) error {
+	b, err := synthBode(res, p)
+	if err != nil {
+		return err
+	}
+	return b.render(path, inputs...)
 }
 
 // synthBode is the plot plotSynth draws.
-func synthBode(res *synth.Result, original *networks.Design) *bode {
+func synthBode(res *synth.Result, p *synth.Problem) (*bode, error) {
+	if p == nil {
+		p = &synth.Problem{}
+	}
+	original := p.From
 	d := res.Design
 	b := &bode{
 		Title:   "synthesized: " + designTitle(d),
@@ -715,14 +973,52 @@ func synthBode(res *synth.Result, original *networks.Design) *bode {
 		Range:   d.Band,
 		Curves:  designCurves(d, atSwept(d, networks.DefaultPositions...), false),
 	}
+	if c := p.Curve; c != nil {
+		// A curve target: the achieved curves at its settings, each with
+		// its target dashed in the same colour (moved by the level
+		// offset taken out, if any).
+		var ss []networks.Setting
+		for _, cs := range c.Settings {
+			over := cs.Knobs
+			switch {
+			case cs.Swept != nil:
+				kn := d.SweptKnob()
+				if kn == "" {
+					kn = networks.BlendKnob
+				}
+				over = map[string]float64{kn: *cs.Swept}
+			case cs.Label == "":
+				over = p.CurveKnobs
+			}
+			st, err := d.Setting(over)
+			if err != nil {
+				return nil, err
+			}
+			ss = append(ss, st)
+		}
+		b.Curves = designCurves(d, ss, false)
+		for i, cs := range c.Settings {
+			off := 0.0
+			if i < len(res.Curves) {
+				off = res.Curves[i].OffsetDB
+			}
+			db := make([]float64, len(cs.DB))
+			for j, v := range cs.DB {
+				db[j] = v + off
+			}
+			b.Curves = append(b.Curves, curve{Label: "target " + b.Curves[i].Label, Hz: c.Hz, DB: db, Dash: true,
+				Color: curveColors[i%len(curveColors)]})
+		}
+	}
 	t := res.Targets
 	if original != nil {
 		at := synth.DefaultAt
 		if t.At != nil {
 			at = *t.At
 		}
-		o := designCurves(original, atSwept(original, at), false)[0]
-		o.Label = "original design, blend " + posLabel(at)
+		os := atSwept(original, at)
+		o := designCurves(original, os, false)[0]
+		o.Label = "original design, " + studyLabel(original, os[0])
 		o.Dash, o.Color, o.Family, o.Marks = true, color.Black, false, nil
 		b.Curves = append(b.Curves, o)
 		b.Title = "re-voiced: " + designTitle(d)
@@ -733,8 +1029,20 @@ func synthBode(res *synth.Result, original *networks.Design) *bode {
 		if t.At != nil {
 			at = *t.At
 		}
-		c := d.Chain(at)
-		k := c.Compile()
+		over := map[string]float64{}
+		if kn := d.SweptKnob(); kn != "" {
+			over[kn] = at
+		} else if ks := d.KnobNames(); len(ks) > 0 {
+			over[ks[0]] = at
+		}
+		st, err := d.Setting(over)
+		if err != nil {
+			return nil, err
+		}
+		k, err := d.Compile(st)
+		if err != nil {
+			return nil, err
+		}
 		s := res.Metrics.Scoop
 		shoulders := k.GainDB(s.Hz) - s.DepthDB
 		b.Targets = append(b.Targets, target{Label: fmt.Sprintf("scoop target (knob %s)", posLabel(at)),
@@ -746,5 +1054,24 @@ func synthBode(res *synth.Result, original *networks.Design) *bode {
 	if t.CornerHz != nil && *t.CornerHz > d.Band.To {
 		b.Range.To = math.Min(*t.CornerHz*1.5, 10*d.Band.To)
 	}
-	return b
+	return b, nil
+}
+
+// limitFigure prints a limit's figure in its unit.
+func limitFigure(unit string, v float64) string {
+	if unit == "dB" {
+		return fmt.Sprintf("%.1f dB", v)
+	}
+	return withUnit(v, 3, unit)
+}
+
+// limitBreak names the limits the design breaks.
+func limitBreak(res *synth.Result) string {
+	var names []string
+	for _, l := range res.Limits {
+		if !l.Met {
+			names = append(names, fmt.Sprintf("%s %s over %s (%s)", l.Name, limitFigure(l.Unit, l.Achieved), limitFigure(l.Unit, l.Limit), l.Key))
+		}
+	}
+	return "no design found meets the targets within the limits; the nearest breaks " + strings.Join(names, ", ")
 }

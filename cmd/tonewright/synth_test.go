@@ -156,16 +156,21 @@ func TestSynthRevoice(t *testing.T) {
 func TestSynthInfeasible(t *testing.T) {
 	dir := t.TempDir()
 	out := filepath.Join(dir, "best.yaml")
-	code, stdout, stderr := tw(t, "synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "400k", "--source", "1k", "-o", out)
+	code, stdout, stderr := tw(t, "synth", "--scoop-hz", "800", "--depth", "-8", "--balance", "30", "--corner", "10k", "--source", "1k", "-o", out)
 	if code != 3 {
 		t.Fatalf("exit %d, want 3\n%s%s", code, stdout, stderr)
 	}
-	for _, want := range []string{"not met:", "corner: wanted 400 kHz, chosen parts give no corner below 10 × band top", "nearest achievable"} {
+	for _, want := range []string{"not met:", "scoop balance: wanted +30.0 dB", "nearest achievable",
+		"no design within the tolerance was found in", "starts (physics seeds, random starts over every part, each pot value)",
+		"scoop balance: wanted +30.0 dB; the nearest that keeps the scoop frequency at 800 Hz, scoop depth at -8.0 dB and corner at 10 kHz is"} {
 		if !strings.Contains(stdout, want) {
 			t.Errorf("report lacks %q:\n%s", want, stdout)
 		}
 	}
-	if !strings.Contains(stderr, "targets not met:") || !strings.Contains(stderr, "corner") {
+	if strings.Contains(stdout, "ask for more than") || strings.Contains(stdout, "impossible") {
+		t.Errorf("the report claims more than the search shows:\n%s", stdout)
+	}
+	if !strings.Contains(stderr, "targets not met:") || !strings.Contains(stderr, "balance") {
 		t.Errorf("stderr %q", stderr)
 	}
 	if _, err := networks.LoadDesign(out); err != nil {
@@ -215,6 +220,9 @@ func TestSynthBadInput(t *testing.T) {
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "10", "--corner", "5k"}, "--depth 10: a scoop's depth is negative"},
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "--resistors", "E25"}, "--resistors \"E25\": give a series (E3, E6"},
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "--at", "2"}, "--at: knob position 2 is outside 0..1"},
+		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "1e30"}, "targets.corner_hz: 1e30 Hz lies outside what the corner can measure"},
+		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "--prefer", "cheap"}, "--prefer \"cheap\": give closest"},
+		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "--priority", "treble"}, "--priority \"treble\":"},
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "--plot", filepath.Join(dir, "x.gif")}, "must end in .png or .svg"},
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "-o", dir}, "is a directory"},
 		{[]string{"synth", "--from", board, "--free", "lowpass.x"}, `free: unknown part "lowpass.x": this design's parts are lowpass.r`},
@@ -289,5 +297,32 @@ func TestSynthInputHints(t *testing.T) {
 				t.Errorf("check %v lacks %q", c, k)
 			}
 		}
+	}
+}
+
+// The CSV analyze --csv writes is a valid curve target: the invented test
+// board with its low-pass leg capacitor at 15 nF gives the curve, and the
+// board as it is, that capacitor free, is fitted back to it; a list form
+// of targets re-voices by figures at knob settings.
+func TestSynthCurveAndList(t *testing.T) {
+	dir := t.TempDir()
+	board := writeTemp(t, "board.yaml", synthBoard)
+	moved := writeTemp(t, "moved.yaml", strings.Replace(synthBoard, "c: 10n", "c: 15n", 1))
+	csvPath := filepath.Join(dir, "moved.csv")
+	if code, _, stderr := tw(t, "analyze", moved, "--csv", csvPath); code != 0 {
+		t.Fatalf("analyze: exit %d %s", code, stderr)
+	}
+	code, stdout, stderr := tw(t, "synth", "--from", board, "--free", "lowpass.c", "--curve", csvPath)
+	if code != 0 || !strings.Contains(stdout, "curve fit (blend=0.5): RMS 0.000 dB") || !strings.Contains(stdout, "lowpass.c (blend low-pass leg C): 10 nF → 15 nF") {
+		t.Errorf("exit %d\n%s%s", code, stdout, stderr)
+	}
+	list := writeTemp(t, "list.yaml", "targets:\n  - {knobs: {blend: 1}, corner_hz: 8k}\n")
+	code, stdout, stderr = tw(t, "synth", list, "--from", board, "--free", "filters.c")
+	if code != 0 || !strings.Contains(stdout, "corner (blend=1)") {
+		t.Errorf("exit %d\n%s%s", code, stdout, stderr)
+	}
+	code, _, stderr = tw(t, "synth", list)
+	if code != 2 || !strings.Contains(stderr, "the list form of targets re-voices a design") {
+		t.Errorf("exit %d %s", code, stderr)
 	}
 }

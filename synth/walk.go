@@ -1,0 +1,767 @@
+package synth
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"tonewright/eseries"
+	"tonewright/networks"
+)
+
+// The standard-value walk: the discrete stage of a fresh synthesis.
+//
+// The targets fix only as many parts as there are targets (the slaved
+// parts of the lean phase); the exact solutions form a set with one
+// dimension per free part, and the best designs made of allowed values lie
+// along it, not around one point. The walk therefore sweeps the free parts
+// over allowed values: anchors on a grid of them (every allowed pot near
+// the ideal one; each other free part at a few levels a factor walkLevel
+// apart), each anchor pulled onto the targets by solving for the slaved
+// parts. About each anchor, the local slopes (a Jacobian by differences)
+// predict, for every combination of allowed free values within half a
+// level and of the members below and above each slaved part's solution,
+// the errors and the insertion loss; the best predicted combinations are
+// measured exactly, the best measured are re-anchored and their
+// neighbourhood predicted and measured again, and the best is polished by
+// moves of one or two parts to neighbouring members.
+//
+// Combinations are ranked first by the targets missed beyond the
+// tolerance, then by the preference: Closest (the largest error in units
+// of FineTolerance, then the sum of squares) or LeastLoss (the gain at
+// 1 kHz, knob 0.5).
+const (
+	walkLevel     = 0.35 // log distance between anchor levels of a free resistor or capacitor (×1.6)
+	walkLevels    = 3    // anchor levels either side of the ideal value
+	walkPotFactor = 5.0  // pots within this factor of the ideal pot are swept
+	walkPots      = 6    // at most this many pots, the nearest
+	walkMeasure   = 48   // predicted combinations measured exactly
+	walkReanchor  = 8    // measured combinations re-anchored
+	walkRemeasure = 12   // and combinations measured about each
+	walkAnchorMax = 300  // anchors at most
+	walkDirect    = 48   // of the predicted, measured as they are
+	walkSolve     = 24   // free combinations of the best predicted solved exactly
+)
+
+// FineTolerance is the unit in which the walk ranks how close a design
+// comes: 1 % in frequency, 0.25 dB in level.
+var FineTolerance = Tolerance{Freq: 0.01, Level: 0.25}
+
+// Prefer says which of the designs that meet the tolerance a synthesis
+// chooses.
+type Prefer int
+
+const (
+	// Closest chooses the design whose figures lie closest to the
+	// targets (the default).
+	Closest Prefer = iota
+	// LeastLoss chooses the design that loses least at 1 kHz (knob 0.5).
+	LeastLoss
+)
+
+// String is the --prefer word.
+// ParsePrefer reads a Prefer: closest or loss.
+func ParsePrefer(s string) (Prefer, error) {
+	switch strings.ToLower(strings.TrimSpace(s)) {
+	case "closest":
+		return Closest, nil
+	case "loss":
+		return LeastLoss, nil
+	}
+	return Closest, fmt.Errorf("%q: give closest (the figures nearest the targets) or loss (the least insertion loss)", s)
+}
+
+func (p Prefer) String() string {
+	if p == LeastLoss {
+		return "loss"
+	}
+	return "closest"
+}
+
+// candidate is a combination of allowed values with its (predicted or
+// measured) standing.
+type candidate struct {
+	vals   []float64
+	key    string // key(vals), once known
+	misses int
+	close  float64 // closeness: worst² + mean of squares, in FineTolerance units
+	gain   float64
+}
+
+// walker holds the state of a walk.
+type walker struct {
+	e              *evaluator
+	mf             *manifold
+	slaved, free   []int
+	nt             int // number of targets
+	tol            Tolerance
+	prefer         Prefer
+	unit           [maxTargets]float64 // IdealTolerance units per FineTolerance unit, per target
+	userUnit       [maxTargets]float64 // IdealTolerance units per tol unit
+	jac            []float64           // (nt+1) × nv: errors and gain against log values
+	r0             []float64
+	seen           map[string]bool
+	best           []candidate // measured, best first
+	evalsAtStart   int
+	predictedCount int
+}
+
+// better orders candidates: fewer misses, then the preference.
+func (w *walker) better(a, b *candidate) bool {
+	if a.misses != b.misses {
+		return a.misses < b.misses
+	}
+	if w.prefer == LeastLoss && a.misses == 0 {
+		if a.gain != b.gain {
+			return a.gain > b.gain
+		}
+	}
+	return a.close < b.close
+}
+
+// judge fills a candidate's misses and closeness from its errors (in
+// IdealTolerance units) and gain.
+func (w *walker) judge(c *candidate, errs []float64, gain float64) {
+	c.misses, c.gain = 0, gain
+	worst, ss := 0.0, 0.0
+	for i, x := range errs {
+		if math.Abs(x) > w.userUnit[i] {
+			c.misses++
+		}
+		f := x / w.unit[i]
+		worst = math.Max(worst, math.Abs(f))
+		ss += f * f
+	}
+	if g := &w.e.goal; g.maxLoss > 0 && -gain > g.maxLoss {
+		c.misses++
+	}
+	c.close = worst*worst + ss/float64(max(1, len(errs)))
+	if math.IsNaN(c.close) {
+		c.close = math.Inf(1)
+	}
+}
+
+// units fills the conversion factors for the goal's targets.
+func (w *walker) units() {
+	g := &w.e.goal
+	n := 0
+	add := func(freq bool) {
+		if freq {
+			w.unit[n] = math.Log1p(FineTolerance.Freq) / IdealTolerance.Freq
+			w.userUnit[n] = math.Log1p(w.tol.Freq) / IdealTolerance.Freq
+		} else {
+			w.unit[n] = FineTolerance.Level / IdealTolerance.Level
+			w.userUnit[n] = w.tol.Level / IdealTolerance.Level
+		}
+		n++
+	}
+	if g.scoop {
+		add(true)
+		add(false)
+		add(false)
+	}
+	if g.corner {
+		add(true)
+	}
+	w.nt = n
+}
+
+// exact measures the design at vals (allowed values) and records it.
+func (w *walker) exact(vals []float64) candidate {
+	e := w.e
+	e.setValues(vals)
+	var m Metrics
+	e.measure(&m)
+	var errs [maxTargets]float64
+	n := e.targetErrors(&m, &errs)
+	c := candidate{vals: slices.Clone(vals)}
+	w.judge(&c, errs[:n], m.Gain1kDB)
+	if math.IsInf(e.worst(&m), 1) {
+		c.misses, c.close = w.nt+1, math.Inf(1)
+	}
+	if e.goal.maxOut > 0 && m.OutputOhm > e.goal.maxOut {
+		c.misses++
+	}
+	w.best = append(w.best, c)
+	slices.SortStableFunc(w.best, func(a, b candidate) int {
+		switch {
+		case w.better(&a, &b):
+			return -1
+		case w.better(&b, &a):
+			return 1
+		}
+		return 0
+	})
+	return c
+}
+
+// slopes computes w.jac and w.r0 at x (log values): the errors and the
+// gain at 1 kHz, and their derivatives by forward differences.
+func (w *walker) slopes(x []float64) float64 {
+	e := w.e
+	nv := len(e.vars)
+	rows := w.nt + 1
+	if len(w.jac) != rows*nv {
+		w.jac = make([]float64, rows*nv)
+		w.r0 = make([]float64, rows)
+	}
+	read := func(dst []float64) {
+		var m Metrics
+		e.measure(&m)
+		var errs [maxTargets]float64
+		k := e.targetErrors(&m, &errs)
+		copy(dst, errs[:k])
+		dst[w.nt] = m.Gain1kDB
+	}
+	e.setLog(x)
+	read(w.r0)
+	y := slices.Clone(x)
+	tmp := make([]float64, rows)
+	for j := 0; j < nv; j++ {
+		y[j] = x[j] + jacobianStep
+		e.setLog(y)
+		read(tmp)
+		for i := 0; i < rows; i++ {
+			w.jac[i*nv+j] = (tmp[i] - w.r0[i]) / jacobianStep
+		}
+		y[j] = x[j]
+	}
+	return w.r0[w.nt]
+}
+
+// key identifies a combination of values.
+func key(vals []float64) string {
+	b := make([]byte, 0, 8*len(vals))
+	for _, v := range vals {
+		u := math.Float64bits(float64(float32(v)))
+		for k := 0; k < 8; k++ {
+			b = append(b, byte(u>>(8*k)))
+		}
+	}
+	return string(b)
+}
+
+// predictAround ranks, by the slopes at the anchor xa (log values, on the
+// targets), the combinations of allowed values about it: each free part at
+// the members given in freeVals (one list per free part), the slaved parts
+// at the members either side of their linearised solution (and, with
+// wide, one member further either way). It appends the best keep to out.
+func (w *walker) predictAround(xa []float64, freeVals [][]float64, wide bool, keep int) []candidate {
+	e := w.e
+	nv := len(e.vars)
+	ns := len(w.slaved)
+	var top []candidate
+	// The square system in the slaved parts: Js·Δs = −(r0 + Jf·Δf).
+	js := make([]float64, ns*ns)
+	for i := 0; i < ns; i++ {
+		for k, j := range w.slaved {
+			js[i*ns+k] = w.jac[i*nv+j]
+		}
+	}
+	rhs := make([]float64, ns)
+	ds := make([]float64, ns)
+	idx := make([]int, len(w.free))
+	vals := make([]float64, nv)
+	dx := make([]float64, nv)
+	pred := make([]float64, w.nt)
+	slavedCands := make([][]float64, ns)
+	sidx := make([]int, ns)
+	for {
+		for q, j := range w.free {
+			vals[j] = freeVals[q][idx[q]]
+			dx[j] = math.Log(vals[j]) - xa[j]
+		}
+		for i := 0; i < ns; i++ {
+			s := w.r0[i]
+			for _, j := range w.free {
+				s += w.jac[i*nv+j] * dx[j]
+			}
+			rhs[i] = -s
+		}
+		if solveSquare(js, rhs, ds, ns) {
+			for k, j := range w.slaved {
+				v := &e.vars[j]
+				x := math.Exp(xa[j] + ds[k])
+				cs := candidates(v, x)
+				if wide && len(cs) > 0 {
+					if p, ok := eseries.Prev(v.set, cs[0]); ok {
+						cs = append([]float64{p}, cs...)
+					}
+					if n, ok := eseries.Next(v.set, cs[len(cs)-1]); ok {
+						cs = append(cs, n)
+					}
+				}
+				slavedCands[k] = cs
+				sidx[k] = 0
+			}
+			ok := true
+			for _, cs := range slavedCands {
+				ok = ok && len(cs) > 0
+			}
+			for ok {
+				for k, j := range w.slaved {
+					vals[j] = slavedCands[k][sidx[k]]
+					dx[j] = math.Log(vals[j]) - xa[j]
+				}
+				for i := 0; i < w.nt; i++ {
+					s := w.r0[i]
+					for j := 0; j < nv; j++ {
+						s += w.jac[i*nv+j] * dx[j]
+					}
+					pred[i] = s
+				}
+				gain := w.r0[w.nt]
+				for j := 0; j < nv; j++ {
+					gain += w.jac[w.nt*nv+j] * dx[j]
+				}
+				c := candidate{}
+				w.judge(&c, pred, gain)
+				w.predictedCount++
+				if len(top) < keep || w.better(&c, &top[len(top)-1]) {
+					if k := key(vals); !w.seen[k] {
+						c.vals, c.key = slices.Clone(vals), k
+						top = insertCandidate(w, top, c, keep)
+					}
+				}
+				k := 0
+				for k < ns {
+					sidx[k]++
+					if sidx[k] < len(slavedCands[k]) {
+						break
+					}
+					sidx[k] = 0
+					k++
+				}
+				if k == ns {
+					break
+				}
+			}
+		}
+		q := 0
+		for q < len(w.free) {
+			idx[q]++
+			if idx[q] < len(freeVals[q]) {
+				break
+			}
+			idx[q] = 0
+			q++
+		}
+		if q == len(w.free) {
+			break
+		}
+	}
+	return top
+}
+
+// insertCandidate keeps top sorted, best first, at most keep long, without
+// two equal combinations.
+func insertCandidate(w *walker, top []candidate, c candidate, keep int) []candidate {
+	if c.key == "" {
+		c.key = key(c.vals)
+	}
+	k := c.key
+	for i := range top {
+		if top[i].key == k {
+			if w.better(&c, &top[i]) {
+				top = slices.Delete(top, i, i+1)
+				break
+			}
+			return top
+		}
+	}
+	i := len(top)
+	for i > 0 && w.better(&c, &top[i-1]) {
+		i--
+	}
+	top = slices.Insert(top, i, c)
+	if len(top) > keep {
+		top = top[:keep]
+	}
+	return top
+}
+
+// solveSquare solves the n×n system a·x = b by Gaussian elimination with
+// partial pivoting (a and b are not changed); false when singular.
+func solveSquare(a0, b0, x []float64, n int) bool {
+	var buf [5 * 6]float64
+	if n > 5 {
+		return false
+	}
+	w := n + 1
+	a := buf[:n*w]
+	for i := 0; i < n; i++ {
+		copy(a[i*w:i*w+n], a0[i*n:i*n+n])
+		a[i*w+n] = b0[i]
+	}
+	for c := 0; c < n; c++ {
+		piv := c
+		for r := c + 1; r < n; r++ {
+			if math.Abs(a[r*w+c]) > math.Abs(a[piv*w+c]) {
+				piv = r
+			}
+		}
+		if a[piv*w+c] == 0 || math.IsNaN(a[piv*w+c]) {
+			return false
+		}
+		if piv != c {
+			for k := 0; k < w; k++ {
+				a[c*w+k], a[piv*w+k] = a[piv*w+k], a[c*w+k]
+			}
+		}
+		for r := c + 1; r < n; r++ {
+			f := a[r*w+c] / a[c*w+c]
+			for k := c; k < w; k++ {
+				a[r*w+k] -= f * a[c*w+k]
+			}
+		}
+	}
+	for c := n - 1; c >= 0; c-- {
+		s := a[c*w+n]
+		for k := c + 1; k < n; k++ {
+			s -= a[c*w+k] * x[k]
+		}
+		x[c] = s / a[c*w+c]
+	}
+	return true
+}
+
+// membersNear lists the members of v's set within half-width h (log) of x,
+// at least the nearest one.
+func membersNear(v *variable, x, h float64) []float64 {
+	var out []float64
+	lo, hi := math.Exp(x-h), math.Exp(x+h)
+	m, ok := v.set.Above(lo)
+	for ok && m <= hi*(1+eseries.RelTol) {
+		out = append(out, m)
+		m, ok = eseries.Next(v.set, m)
+	}
+	if len(out) == 0 {
+		if n, err := eseries.Nearest(v.set, math.Exp(x)); err == nil {
+			out = append(out, n)
+		}
+	}
+	return out
+}
+
+// walk is the standard-value walk from the ideal values (exact, on the
+// targets). It returns the chosen values and whether it could run (the
+// problem has slaved parts); the values are then the best measured, and
+// ideal is overwritten with the exact design nearest them (the free parts
+// at their chosen values) when the targets can be solved there.
+func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort int) ([]float64, bool) {
+	// A higher effort sweeps more levels and pots: level L either side,
+	// pots within a factor F, at most P pots and A anchors.
+	effort = max(1, effort)
+	levelsEither := walkLevels + 2*(effort-1)
+	potFactor := walkPotFactor * math.Pow(4, float64(effort-1))
+	maxPots := walkPots + 2*(effort-1)
+	anchorMax := walkAnchorMax * effort * effort
+	solveMax := walkSolve * effort * effort
+	keep := walkMeasure * effort * effort
+	slaved, free := slavedVars(e)
+	if slaved == nil || len(free) == 0 {
+		return nil, false
+	}
+	w := &walker{e: e, slaved: slaved, free: free, tol: tol, prefer: prefer, seen: map[string]bool{}}
+	w.units()
+	w.mf = newManifold(e, slaved, free)
+	w.mf.moving(slaved)
+	nv := len(e.vars)
+	x0 := make([]float64, nv)
+	for i, v := range ideal {
+		x0[i] = math.Log(v)
+	}
+	// The anchors' free values: every allowed pot near the ideal one, the
+	// other free parts at levels walkLevel apart, each snapped to a
+	// member.
+	levels := make([][]float64, len(free))
+	for q, j := range free {
+		v := &e.vars[j]
+		if v.kind == networks.PartPot {
+			var ps []float64
+			for _, m := range membersNear(v, x0[j], math.Log(potFactor)) {
+				ps = append(ps, m)
+			}
+			slices.SortStableFunc(ps, func(a, b float64) int {
+				da, db := math.Abs(math.Log(a)-x0[j]), math.Abs(math.Log(b)-x0[j])
+				switch {
+				case da < db:
+					return -1
+				case da > db:
+					return 1
+				}
+				return 0
+			})
+			levels[q] = ps[:min(maxPots, len(ps))]
+			continue
+		}
+		for k := -levelsEither; k <= levelsEither; k++ {
+			x := math.Min(math.Max(x0[j]+float64(k)*walkLevel, v.lo), v.hi)
+			if m, err := eseries.Nearest(v.set, math.Exp(x)); err == nil && !slices.ContainsFunc(levels[q], func(y float64) bool { return same(y, m) }) {
+				levels[q] = append(levels[q], m)
+			}
+		}
+		// Nearest first, so that restoring walks outward.
+		slices.SortStableFunc(levels[q], func(a, b float64) int {
+			da, db := math.Abs(math.Log(a)-x0[j]), math.Abs(math.Log(b)-x0[j])
+			switch {
+			case da < db:
+				return -1
+			case da > db:
+				return 1
+			}
+			return 0
+		})
+	}
+	var top []candidate
+	idx := make([]int, len(free))
+	x := make([]float64, nv)
+	anchors := 0
+	var restored [][]float64 // the anchors' points, to start neighbours from
+	for anchors < anchorMax {
+		// Start from the restored anchor nearest in the free parts.
+		start := x0
+		bestD := math.Inf(1)
+		for _, r := range restored {
+			d := 0.0
+			for q, j := range free {
+				d += sq(r[j] - math.Log(levels[q][idx[q]]))
+			}
+			if d < bestD {
+				start, bestD = r, d
+			}
+		}
+		copy(x, start)
+		for q, j := range free {
+			x[j] = math.Log(levels[q][idx[q]])
+		}
+		w.mf.have = false
+		_, _, ok := w.mf.restore(x, startSteps)
+		anchors++
+		if ok {
+			restored = append(restored, slices.Clone(x))
+			w.slopes(x)
+			freeVals := make([][]float64, len(free))
+			for q, j := range free {
+				v := &e.vars[j]
+				if v.kind == networks.PartPot {
+					freeVals[q] = []float64{levels[q][idx[q]]}
+				} else {
+					freeVals[q] = membersNear(v, x[j], walkLevel/2)
+				}
+			}
+			for _, c := range w.predictAround(x, freeVals, false, keep) {
+				top = insertCandidate(w, top, c, keep)
+			}
+		}
+		q := 0
+		for q < len(free) {
+			idx[q]++
+			if idx[q] < len(levels[q]) {
+				break
+			}
+			idx[q] = 0
+			q++
+		}
+		if q == len(free) {
+			break
+		}
+	}
+	for _, c := range top[:min(walkDirect, len(top))] {
+		w.seen[key(c.vals)] = true
+		w.exact(c.vals)
+	}
+	// The free combinations of the best predictions, solved exactly for
+	// the slaved parts: their roundings then predict well.
+	var done []string
+	for _, c := range top {
+		if len(done) == solveMax {
+			break
+		}
+		fk := make([]float64, len(free))
+		for q, j := range free {
+			fk[q] = c.vals[j]
+		}
+		k := key(fk)
+		if slices.Contains(done, k) {
+			continue
+		}
+		done = append(done, k)
+		start, bestD := x0, math.Inf(1)
+		for _, r := range restored {
+			d := 0.0
+			for _, j := range free {
+				d += sq(r[j] - math.Log(c.vals[j]))
+			}
+			if d < bestD {
+				start, bestD = r, d
+			}
+		}
+		copy(x, start)
+		for _, j := range free {
+			x[j] = math.Log(c.vals[j])
+		}
+		w.mf.have = false
+		if _, _, ok := w.mf.restore(x, startSteps); !ok {
+			continue
+		}
+		w.roundings(x, 2)
+	}
+	if len(w.best) == 0 {
+		return nil, false
+	}
+	// Re-anchor the best measured: restore the slaved parts with the free
+	// ones at their allowed values, and predict the neighbourhood.
+	reanchor := slices.Clone(w.best[:min(walkReanchor, len(w.best))])
+	for _, c := range reanchor {
+		for j := range x {
+			x[j] = math.Log(c.vals[j])
+		}
+		w.mf.have = false
+		if _, _, ok := w.mf.restore(x, startSteps); !ok {
+			continue
+		}
+		w.slopes(x)
+		freeVals := make([][]float64, len(free))
+		for q, j := range free {
+			v := &e.vars[j]
+			fv := []float64{c.vals[j]}
+			if p, ok := eseries.Prev(v.set, c.vals[j]); ok {
+				fv = append(fv, p)
+			}
+			if n, ok := eseries.Next(v.set, c.vals[j]); ok {
+				fv = append(fv, n)
+			}
+			freeVals[q] = fv
+		}
+		for _, p := range w.predictAround(x, freeVals, true, walkRemeasure) {
+			w.seen[key(p.vals)] = true
+			w.exact(p.vals)
+		}
+	}
+	best := w.best[0]
+	vals := w.descend(slices.Clone(best.vals))
+	// The exact design nearest the chosen one: the free parts at their
+	// chosen values, the slaved parts solved for the targets. It is the
+	// ideal the report compares the chosen parts with.
+	for j := range x {
+		x[j] = math.Log(vals[j])
+	}
+	w.mf.have = false
+	if _, _, ok := w.mf.restore(x, startSteps); ok {
+		for j := range ideal {
+			ideal[j] = math.Exp(x[j])
+		}
+	}
+	e.setValues(vals)
+	return vals, true
+}
+
+// descend makes moves of one part, then of two, to neighbouring members
+// while one improves the exact standing.
+func (w *walker) descend(vals []float64) []float64 {
+	e := w.e
+	cur := w.exact(vals)
+	trial := make([]float64, len(vals))
+	var m1, m2 [3]float64
+	for iter := 0; iter < 50; iter++ {
+		improved := false
+		for i := range e.vars {
+			for _, v := range moves(&e.vars[i], cur.vals[i], m1[:0]) {
+				copy(trial, cur.vals)
+				trial[i] = v
+				if w.seen[key(trial)] {
+					continue
+				}
+				w.seen[key(trial)] = true
+				if c := w.exact(trial); w.better(&c, &cur) {
+					cur, improved = c, true
+				}
+			}
+		}
+		if improved {
+			continue
+		}
+		for i := range e.vars {
+			for j := i + 1; j < len(e.vars); j++ {
+				for _, a := range moves(&e.vars[i], cur.vals[i], m1[:0]) {
+					for _, b := range moves(&e.vars[j], cur.vals[j], m2[:0]) {
+						copy(trial, cur.vals)
+						trial[i], trial[j] = a, b
+						if w.seen[key(trial)] {
+							continue
+						}
+						w.seen[key(trial)] = true
+						if c := w.exact(trial); w.better(&c, &cur) {
+							cur, improved = c, true
+						}
+					}
+				}
+			}
+		}
+		if !improved {
+			break
+		}
+	}
+	e.setValues(cur.vals)
+	return cur.vals
+}
+
+// roundings measures the best measure combinations of the members either
+// side of the slaved parts of x (log values, on the targets, the free
+// parts at allowed values), ranked by the restoring Jacobian (errors
+// against the slaved parts), which is exact or nearly so at x.
+func (w *walker) roundings(x []float64, measure int) {
+	e := w.e
+	ns := len(w.slaved)
+	r0 := slices.Clone(w.mf.r)
+	vals := make([]float64, len(x))
+	for j := range x {
+		vals[j] = math.Exp(x[j])
+	}
+	cands := make([][]float64, ns)
+	for k, j := range w.slaved {
+		cands[k] = candidates(&e.vars[j], vals[j])
+		if len(cands[k]) == 0 {
+			return
+		}
+	}
+	var top []candidate
+	idx := make([]int, ns)
+	pred := make([]float64, w.nt)
+	for {
+		for k, j := range w.slaved {
+			vals[j] = cands[k][idx[k]]
+		}
+		for i := 0; i < w.nt; i++ {
+			s := r0[i]
+			for k, j := range w.slaved {
+				s += w.mf.jac[i*ns+k] * (math.Log(vals[j]) - x[j])
+			}
+			pred[i] = s
+		}
+		c := candidate{}
+		w.judge(&c, pred, 0)
+		if !w.seen[key(vals)] {
+			c.vals = slices.Clone(vals)
+			top = insertCandidate(w, top, c, measure)
+		}
+		k := 0
+		for k < ns {
+			idx[k]++
+			if idx[k] < len(cands[k]) {
+				break
+			}
+			idx[k] = 0
+			k++
+		}
+		if k == ns {
+			break
+		}
+	}
+	for _, c := range top {
+		w.seen[key(c.vals)] = true
+		w.exact(c.vals)
+	}
+}
