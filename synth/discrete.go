@@ -32,15 +32,18 @@ func discrete(e *evaluator, ideal []float64) ([]float64, float64) {
 	}
 	cur := make([]float64, n)
 	best := make([]float64, n)
-	bestF := math.Inf(1)
+	bestG := grade{cost: math.Inf(1)}
+	for i := range bestG.miss {
+		bestG.miss[i] = math.MaxInt
+	}
 	if total <= maxCombinations {
 		idx := make([]int, n)
 		for {
 			for i := range cur {
 				cur[i] = cands[i][idx[i]]
 			}
-			if f := e.at(cur); f < bestF {
-				bestF = f
+			if g := e.grade(cur); g.better(&bestG, 0) {
+				bestG = g
 				copy(best, cur)
 			}
 			k := 0
@@ -67,35 +70,39 @@ func discrete(e *evaluator, ideal []float64) ([]float64, float64) {
 // discreteFrom makes local moves from the allowed values best: the best
 // single change, repeated while one improves; when none does, the best
 // change of two parts at once. It returns the values and their cost.
+//
+// Under a priority (the ideal values miss) a change is better when it
+// misses fewer targets of the highest rank where the misses differ, then
+// when it lowers the cost (see grade).
 func discreteFrom(e *evaluator, best []float64) ([]float64, float64) {
 	n := len(e.vars)
 	cur := make([]float64, n)
-	bestF := e.at(best)
+	bestG := e.grade(best)
 	var m1, m2 [3]float64
 	for iter := 0; iter < 200; iter++ {
-		moveI, moveV, moveF := -1, 0.0, bestF
+		moveI, moveV, moveG := -1, 0.0, bestG
 		for i := range e.vars {
 			for _, v := range moves(&e.vars[i], best[i], m1[:0]) {
 				copy(cur, best)
 				cur[i] = v
-				if f := e.at(cur); f < moveF-1e-12*math.Abs(moveF) {
-					moveI, moveV, moveF = i, v, f
+				if g := e.grade(cur); g.better(&moveG, 1e-12) {
+					moveI, moveV, moveG = i, v, g
 				}
 			}
 		}
 		if moveI >= 0 {
-			best[moveI], bestF = moveV, moveF
+			best[moveI], bestG = moveV, moveG
 			continue
 		}
-		pairI, pairJ, vi, vj, pairF := -1, -1, 0.0, 0.0, bestF
+		pairI, pairJ, vi, vj, pairG := -1, -1, 0.0, 0.0, bestG
 		for i := range e.vars {
 			for j := i + 1; j < n; j++ {
 				for _, a := range moves(&e.vars[i], best[i], m1[:0]) {
 					for _, b := range moves(&e.vars[j], best[j], m2[:0]) {
 						copy(cur, best)
 						cur[i], cur[j] = a, b
-						if f := e.at(cur); f < pairF-1e-12*math.Abs(pairF) {
-							pairI, pairJ, vi, vj, pairF = i, j, a, b, f
+						if g := e.grade(cur); g.better(&pairG, 1e-12) {
+							pairI, pairJ, vi, vj, pairG = i, j, a, b, g
 						}
 					}
 				}
@@ -104,10 +111,10 @@ func discreteFrom(e *evaluator, best []float64) ([]float64, float64) {
 		if pairI < 0 {
 			break
 		}
-		best[pairI], best[pairJ], bestF = vi, vj, pairF
+		best[pairI], best[pairJ], bestG = vi, vj, pairG
 	}
 	e.setValues(best)
-	return best, bestF
+	return best, bestG.cost
 }
 
 // candidates are the allowed values next to the ideal value x: the members

@@ -51,7 +51,11 @@
 // Before it reports that the ideal parts miss, a synthesis pulls many
 // more starts onto the targets (see rescue.go), none of them drawn from
 // Options.Seed, so the verdict is the same for every seed. Targets that
-// cannot all be met are kept in priority order (Problem.Priority). Limits
+// cannot all be met are kept in priority order (Problem.Priority): the
+// parts of allowed values are then ranked by their misses beyond the
+// tolerance, rank by rank, before any cost, so that they never give up a
+// target the ideal parts keep for a step towards one ranked below it; when
+// the joint snap still does, the sequential snap tries again. Limits
 // (Problem.Limits) bound the output impedance, the smallest capacitor and
 // the loss; a design that breaks one does not meet the targets.
 //

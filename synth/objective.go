@@ -103,6 +103,8 @@ type evaluator struct {
 	// slack, when set with weights, is each target's tolerance in units
 	// of IdealTolerance: the weights then apply to the miss beyond it.
 	slack []float64
+	// ranks are the targets' priority ranks (goal.ranks), with slack.
+	ranks []int
 
 	progress func()
 }

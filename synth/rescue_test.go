@@ -49,6 +49,54 @@ func TestPriorityKeepsOrder(t *testing.T) {
 	}
 }
 
+// Nearby voices whose balance is out of reach keep the other targets with
+// the chosen parts too: the parts of allowed values never give up a
+// target of a rank the ideal parts keep for a step towards the balance
+// (see grade). Invented targets.
+func TestPriorityKeepsOrderNearby(t *testing.T) {
+	if testing.Short() {
+		t.Skip("four syntheses")
+	}
+	for _, c := range []struct{ hz, depth float64 }{
+		{700, -8}, {750, -8}, {800, -10}, {850, -8},
+	} {
+		tg := Targets{ScoopHz: ptr(c.hz), DepthDB: ptr(c.depth), BalanceDB: ptr(30.0), CornerHz: ptr(10e3)}
+		r, err := Solve(&Problem{Targets: tg, Source: &networks.Source{Impedance: 1e3}}, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, k := range r.Checks {
+			if k.IdealMet && !k.Met {
+				t.Errorf("%v Hz, %v dB: chosen parts: %s missed (%v against %v) although the ideal parts keep it", c.hz, c.depth, k.Name, k.Achieved, k.Wanted)
+			}
+		}
+	}
+}
+
+// A miss of a higher rank outweighs any cost and any number of misses
+// below it.
+func TestGradeOrder(t *testing.T) {
+	var depthMiss, balanceMisses, none grade
+	depthMiss.miss[2], depthMiss.cost = 1, 1
+	balanceMisses.miss[3], balanceMisses.cost = 3, 1e12
+	none.cost = 1e15
+	for _, c := range []struct {
+		name string
+		a, b grade
+		want bool
+	}{
+		{"lower rank misses, higher cost", balanceMisses, depthMiss, true},
+		{"higher rank misses, lower cost", depthMiss, balanceMisses, false},
+		{"no miss", none, balanceMisses, true},
+		{"same misses, lower cost", depthMiss, grade{miss: depthMiss.miss, cost: 2}, true},
+		{"equal", depthMiss, depthMiss, false},
+	} {
+		if got := c.a.better(&c.b, 0); got != c.want {
+			t.Errorf("%s: better %v, want %v", c.name, got, c.want)
+		}
+	}
+}
+
 // The verdict does not depend on the seed: a reachable deep scoop is met
 // and a balance out of reach is missed for every seed. Invented targets.
 func TestVerdictSameForEverySeed(t *testing.T) {

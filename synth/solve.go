@@ -398,7 +398,7 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 				// (A re-voicing's runs of single parts are starts
 				// for the joint one, which the pruning pass trims;
 				// they keep the plain weights.)
-				e.slack = slackOf(g, tol)
+				e.slack, e.ranks = slackOf(g, tol), g.ranks()
 			}
 		}
 	}
@@ -417,12 +417,27 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 		chosen, cost = discrete(e, ideal)
 	}
 	// A second try at the snap, when the joint one misses the tolerance
-	// but the ideal values meet it (else no snap will).
-	if !walked && !meets(e, chosen, PartsTolerance) && meets(e, ideal, PartsTolerance) {
-		if c2, f2 := snapSequential(e, ideal); f2 < cost {
-			chosen, cost = c2, f2
+	// but the ideal values meet it (else no snap will); under a priority,
+	// when it misses a target of a rank the ideal values keep.
+	if !walked {
+		retry := !meets(e, chosen, PartsTolerance) && meets(e, ideal, PartsTolerance)
+		var gc grade
+		if e.slack != nil {
+			gi := e.grade(ideal)
+			gc = e.grade(chosen)
+			retry = gi.keepsMore(&gc)
 		}
-		e.setValues(chosen)
+		if retry {
+			c2, f2 := snapSequential(e, ideal)
+			if e.slack != nil {
+				if g2 := e.grade(c2); g2.better(&gc, 0) {
+					chosen, cost = c2, f2
+				}
+			} else if f2 < cost {
+				chosen, cost = c2, f2
+			}
+			e.setValues(chosen)
+		}
 	}
 	miss := misses(e, chosen, tol)
 	for _, x := range extra {
