@@ -11,7 +11,7 @@ import (
 // of the blend knob, as analyze reports them. The design is the
 // repository's invented demo board.
 func ExampleNewDesignModel() {
-	d, err := networks.LoadDesign("../../../testdata/demo-design.yaml")
+	d, err := networks.LoadDesign("../../../testdata/fixed-board.yaml")
 	if err != nil {
 		fmt.Println(err)
 		return

@@ -13,7 +13,7 @@ import (
 // The designs the tests serve: the invented demo board and the invented
 // example board of the repository's testdata.
 const (
-	demoDesign    = "../../../testdata/demo-design.yaml"
+	demoDesign    = "../../../testdata/fixed-board.yaml" // fixed values; the demo design follows the synthesis
 	exampleDesign = "../../../testdata/example-board.yaml"
 )
 
