@@ -779,7 +779,7 @@ func missLine(c synth.Check) string {
 			by = fmt.Sprintf(", off by %+.2f dB", c.Error)
 		}
 	}
-	return fmt.Sprintf("%s: wanted %s, chosen parts give %s%s; nearest achievable (ideal parts) %s",
+	return fmt.Sprintf("%s: wanted %s, chosen parts give %s%s; nearest achievable with the targets before it held exactly (ideal parts) %s",
 		c.Name, figure(c.Unit, c.Wanted, true), what(c.Achieved, c.Found), by, what(c.Ideal, c.IdealFound))
 }
 
