@@ -19,7 +19,8 @@ import (
 // over allowed values: anchors on a grid of them (every allowed pot near
 // the ideal one; each other free part at a few levels a factor walkLevel
 // apart), each anchor pulled onto the targets by solving for the slaved
-// parts. About each anchor, the local slopes (a Jacobian by differences)
+// parts. The slaved parts can have more than one solution (see branches):
+// the grid of anchors is walked on each branch found. About each anchor, the local slopes (a Jacobian by differences)
 // predict, for every combination of allowed free values within half a
 // level and of the members below and above each slaved part's solution,
 // the errors and the insertion loss; the best predicted combinations are
