@@ -428,6 +428,40 @@ func solveSquare(a0, b0, x []float64, n int) bool {
 	return true
 }
 
+// cell lists the members of v's set nearer (in log) to levels[k] than to
+// any other of the levels, and at most walkLevel/2 beyond the outermost
+// (the levels need not be sorted):
+// the free values predicted about the anchor at levels[k]. The levels are
+// snapped to members, so their gaps vary; cells of a fixed width would
+// leave members between two levels that no anchor predicts.
+func cell(v *variable, levels []float64, k int) []float64 {
+	x := math.Log(levels[k])
+	lo, hi := math.Inf(-1), math.Inf(1)
+	for _, l := range levels {
+		switch y := math.Log(l); {
+		case y < x-1e-9:
+			lo = math.Max(lo, (x+y)/2)
+		case y > x+1e-9:
+			hi = math.Min(hi, (x+y)/2)
+		}
+	}
+	if math.IsInf(lo, -1) {
+		lo = x - walkLevel/2
+	}
+	if math.IsInf(hi, 1) {
+		hi = x + walkLevel/2
+	}
+	// The half-open cell [lo, hi), so that a member halfway between two
+	// levels falls in one cell only.
+	var out []float64
+	for _, m := range membersNear(v, (lo+hi)/2, (hi-lo)/2) {
+		if y := math.Log(m); y >= lo-1e-12 && y < hi-1e-12 || same(m, levels[k]) {
+			out = append(out, m)
+		}
+	}
+	return out
+}
+
 // membersNear lists the members of v's set within half-width h (log) of x,
 // at least the nearest one.
 func membersNear(v *variable, x, h float64) []float64 {
@@ -565,7 +599,7 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort in
 					if v.kind == networks.PartPot {
 						freeVals[q] = []float64{levels[q][idx[q]]}
 					} else {
-						freeVals[q] = membersNear(v, x[j], walkLevel/2)
+						freeVals[q] = cell(v, levels[q], idx[q])
 					}
 				}
 				for _, c := range w.predictAround(x, freeVals, false, keep) {
