@@ -40,9 +40,10 @@
 //
 // The discrete stage of a fresh synthesis walks the exact solutions (see
 // walk.go): the free parts swept over allowed values, the others solved
-// for the targets, nearby combinations of allowed values ranked by the
-// local slopes, the best measured and polished by moves of one or two
-// parts. Among the designs within the tolerance it prefers the closest
+// for the targets on each branch of the solutions found (the targets can
+// be met with the low-pass leg high in impedance or low), nearby
+// combinations of allowed values ranked by the local slopes, the best
+// measured and polished by moves of one or two parts. Among the designs within the tolerance it prefers the closest
 // (Closest) or the one of least loss (LeastLoss, Options.Prefer). A
 // re-voicing snaps jointly: every combination of the members just below
 // and just above each ideal value, then single-part (and, when those

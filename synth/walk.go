@@ -19,7 +19,8 @@ import (
 // over allowed values: anchors on a grid of them (every allowed pot near
 // the ideal one; each other free part at a few levels a factor walkLevel
 // apart), each anchor pulled onto the targets by solving for the slaved
-// parts. About each anchor, the local slopes (a Jacobian by differences)
+// parts. The slaved parts can have more than one solution (see branches):
+// the grid of anchors is walked on each branch found. About each anchor, the local slopes (a Jacobian by differences)
 // predict, for every combination of allowed free values within half a
 // level and of the members below and above each slaved part's solution,
 // the errors and the insertion loss; the best predicted combinations are
@@ -32,16 +33,17 @@ import (
 // of FineTolerance, then the sum of squares) or LeastLoss (the gain at
 // 1 kHz, knob 0.5).
 const (
-	walkLevel     = 0.35 // log distance between anchor levels of a free resistor or capacitor (×1.6)
-	walkLevels    = 3    // anchor levels either side of the ideal value
-	walkPotFactor = 5.0  // pots within this factor of the ideal pot are swept
-	walkPots      = 6    // at most this many pots, the nearest
-	walkMeasure   = 48   // predicted combinations measured exactly
-	walkReanchor  = 8    // measured combinations re-anchored
-	walkRemeasure = 12   // and combinations measured about each
-	walkAnchorMax = 300  // anchors at most
-	walkDirect    = 48   // of the predicted, measured as they are
-	walkSolve     = 24   // free combinations of the best predicted solved exactly
+	walkLevel      = 0.35 // log distance between anchor levels of a free resistor or capacitor (×1.6)
+	walkLevels     = 3    // anchor levels either side of the ideal value
+	walkPotFactor  = 5.0  // pots within this factor of the ideal pot are swept
+	walkPots       = 6    // at most this many pots, the nearest
+	walkMeasure    = 48   // predicted combinations measured exactly
+	walkReanchor   = 8    // measured combinations re-anchored
+	walkRemeasure  = 12   // and combinations measured about each
+	walkAnchorMax  = 300  // anchors at most
+	walkDirect     = 48   // of the predicted, measured as they are
+	walkSolve      = 24   // free combinations of the best predicted solved exactly
+	walkSameBranch = 0.1  // log distance within which two exact designs' slaved parts are one
 )
 
 // FineTolerance is the unit in which the walk ranks how close a design
@@ -426,6 +428,40 @@ func solveSquare(a0, b0, x []float64, n int) bool {
 	return true
 }
 
+// cell lists the members of v's set nearer (in log) to levels[k] than to
+// any other of the levels, and at most walkLevel/2 beyond the outermost
+// (the levels need not be sorted):
+// the free values predicted about the anchor at levels[k]. The levels are
+// snapped to members, so their gaps vary; cells of a fixed width would
+// leave members between two levels that no anchor predicts.
+func cell(v *variable, levels []float64, k int) []float64 {
+	x := math.Log(levels[k])
+	lo, hi := math.Inf(-1), math.Inf(1)
+	for _, l := range levels {
+		switch y := math.Log(l); {
+		case y < x-1e-9:
+			lo = math.Max(lo, (x+y)/2)
+		case y > x+1e-9:
+			hi = math.Min(hi, (x+y)/2)
+		}
+	}
+	if math.IsInf(lo, -1) {
+		lo = x - walkLevel/2
+	}
+	if math.IsInf(hi, 1) {
+		hi = x + walkLevel/2
+	}
+	// The half-open cell [lo, hi), so that a member halfway between two
+	// levels falls in one cell only.
+	var out []float64
+	for _, m := range membersNear(v, (lo+hi)/2, (hi-lo)/2) {
+		if y := math.Log(m); y >= lo-1e-12 && y < hi-1e-12 || same(m, levels[k]) {
+			out = append(out, m)
+		}
+	}
+	return out
+}
+
 // membersNear lists the members of v's set within half-width h (log) of x,
 // at least the nearest one.
 func membersNear(v *variable, x, h float64) []float64 {
@@ -517,57 +553,75 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort in
 	var top []candidate
 	idx := make([]int, len(free))
 	x := make([]float64, nv)
-	anchors := 0
-	var restored [][]float64 // the anchors' points, to start neighbours from
-	for anchors < anchorMax {
-		// Start from the restored anchor nearest in the free parts.
-		start := x0
-		bestD := math.Inf(1)
-		for _, r := range restored {
-			d := 0.0
-			for q, j := range free {
-				d += sq(r[j] - math.Log(levels[q][idx[q]]))
-			}
-			if d < bestD {
-				start, bestD = r, d
-			}
-		}
-		copy(x, start)
-		for q, j := range free {
-			x[j] = math.Log(levels[q][idx[q]])
-		}
-		w.mf.have = false
-		_, _, ok := w.mf.restore(x, startSteps)
-		anchors++
-		if ok {
-			restored = append(restored, slices.Clone(x))
-			w.slopes(x)
-			freeVals := make([][]float64, len(free))
-			for q, j := range free {
-				v := &e.vars[j]
-				if v.kind == networks.PartPot {
-					freeVals[q] = []float64{levels[q][idx[q]]}
-				} else {
-					freeVals[q] = membersNear(v, x[j], walkLevel/2)
+	// The anchors of each branch of the exact solutions, in the same
+	// order: earlier[a] are the points earlier branches restored at anchor
+	// a, so that an anchor which falls back onto one of them is not
+	// predicted twice.
+	var all [][]float64 // every branch's restored anchors
+	var earlier [][][]float64
+	for _, b := range w.branches(x0) {
+		anchors := 0
+		var restored [][]float64 // the anchors' points, to start neighbours from
+		clear(idx)
+		for anchors < anchorMax {
+			// Start from the restored anchor nearest in the free parts.
+			start := b
+			bestD := math.Inf(1)
+			for _, r := range restored {
+				d := 0.0
+				for q, j := range free {
+					d += sq(r[j] - math.Log(levels[q][idx[q]]))
+				}
+				if d < bestD {
+					start, bestD = r, d
 				}
 			}
-			for _, c := range w.predictAround(x, freeVals, false, keep) {
-				top = insertCandidate(w, top, c, keep)
+			copy(x, start)
+			for q, j := range free {
+				x[j] = math.Log(levels[q][idx[q]])
 			}
-		}
-		q := 0
-		for q < len(free) {
-			idx[q]++
-			if idx[q] < len(levels[q]) {
+			w.mf.have = false
+			_, _, ok := w.mf.restore(x, startSteps)
+			if len(earlier) <= anchors {
+				earlier = append(earlier, nil)
+			}
+			if ok && slices.ContainsFunc(earlier[anchors], func(o []float64) bool { return w.sameSlaved(o, x) }) {
+				ok = false
+			}
+			anchors++
+			if ok {
+				earlier[anchors-1] = append(earlier[anchors-1], slices.Clone(x))
+				restored = append(restored, slices.Clone(x))
+				w.slopes(x)
+				freeVals := make([][]float64, len(free))
+				for q, j := range free {
+					v := &e.vars[j]
+					if v.kind == networks.PartPot {
+						freeVals[q] = []float64{levels[q][idx[q]]}
+					} else {
+						freeVals[q] = cell(v, levels[q], idx[q])
+					}
+				}
+				for _, c := range w.predictAround(x, freeVals, false, keep) {
+					top = insertCandidate(w, top, c, keep)
+				}
+			}
+			q := 0
+			for q < len(free) {
+				idx[q]++
+				if idx[q] < len(levels[q]) {
+					break
+				}
+				idx[q] = 0
+				q++
+			}
+			if q == len(free) {
 				break
 			}
-			idx[q] = 0
-			q++
 		}
-		if q == len(free) {
-			break
-		}
+		all = append(all, restored...)
 	}
+	restored := all
 	for _, c := range top[:min(walkDirect, len(top))] {
 		w.seen[key(c.vals)] = true
 		w.exact(c.vals)
@@ -591,7 +645,7 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort in
 		start, bestD := x0, math.Inf(1)
 		for _, r := range restored {
 			d := 0.0
-			for _, j := range free {
+			for j := range r {
 				d += sq(r[j] - math.Log(c.vals[j]))
 			}
 			if d < bestD {
@@ -764,4 +818,53 @@ func (w *walker) roundings(x []float64, measure int) {
 		w.seen[key(c.vals)] = true
 		w.exact(c.vals)
 	}
+}
+
+// walkBranchRatios are the ratios of the low-pass leg's R to the pot from
+// which branches restores the ideal point, its C moved to keep the leg's
+// time constant.
+var walkBranchRatios = []float64{0.1, 0.3, 1, 3}
+
+// branches are the points the anchors start from: x0 (exact, on the
+// targets) and the other exact designs with the same free values. The
+// targets can have more than one solution in the slaved parts (the
+// low-pass leg high in impedance or low), and an anchor restored from its
+// neighbour stays on its neighbour's branch, so the walk from x0 alone
+// never reaches the others. branches restores x0 with the low-pass leg's R
+// at each of walkBranchRatios to the pot and keeps the distinct results.
+func (w *walker) branches(x0 []float64) [][]float64 {
+	out := [][]float64{x0}
+	e := w.e
+	lr := slices.IndexFunc(e.vars, func(v variable) bool { return v.name == "lowpass.r" })
+	lc := slices.IndexFunc(e.vars, func(v variable) bool { return v.name == "lowpass.c" })
+	pi := slices.IndexFunc(e.vars, func(v variable) bool { return v.kind == networks.PartPot })
+	if lr < 0 || lc < 0 || pi < 0 {
+		return out
+	}
+	for _, f := range walkBranchRatios {
+		x := slices.Clone(x0)
+		tau := x[lr] + x[lc]
+		x[lr] = math.Min(math.Max(x0[pi]+math.Log(f), e.vars[lr].lo), e.vars[lr].hi)
+		x[lc] = tau - x[lr]
+		w.mf.have = false
+		_, _, ok := w.mf.restore(x, startSteps)
+		if !ok {
+			continue
+		}
+		if !slices.ContainsFunc(out, func(o []float64) bool { return w.sameSlaved(o, x) }) {
+			out = append(out, x)
+		}
+	}
+	return out
+}
+
+// sameSlaved reports whether the exact designs a and b (log values, the
+// same free values) are one: their slaved parts within walkSameBranch.
+func (w *walker) sameSlaved(a, b []float64) bool {
+	for _, j := range w.slaved {
+		if math.Abs(a[j]-b[j]) > walkSameBranch {
+			return false
+		}
+	}
+	return true
 }
