@@ -326,30 +326,12 @@ func (w *walker) predictAround(xa []float64, freeVals [][]float64, wide bool, ke
 						top = insertCandidate(w, top, c, keep)
 					}
 				}
-				k := 0
-				for k < ns {
-					sidx[k]++
-					if sidx[k] < len(slavedCands[k]) {
-						break
-					}
-					sidx[k] = 0
-					k++
-				}
-				if k == ns {
+				if !nextCombination(sidx, func(k int) int { return len(slavedCands[k]) }) {
 					break
 				}
 			}
 		}
-		q := 0
-		for q < len(w.free) {
-			idx[q]++
-			if idx[q] < len(freeVals[q]) {
-				break
-			}
-			idx[q] = 0
-			q++
-		}
-		if q == len(w.free) {
+		if !nextCombination(idx, func(q int) int { return len(freeVals[q]) }) {
 			break
 		}
 	}
@@ -606,16 +588,7 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort in
 					top = insertCandidate(w, top, c, keep)
 				}
 			}
-			q := 0
-			for q < len(free) {
-				idx[q]++
-				if idx[q] < len(levels[q]) {
-					break
-				}
-				idx[q] = 0
-				q++
-			}
-			if q == len(free) {
+			if !nextCombination(idx, func(q int) int { return len(levels[q]) }) {
 				break
 			}
 		}
@@ -801,16 +774,7 @@ func (w *walker) roundings(x []float64, measure int) {
 			c.vals = slices.Clone(vals)
 			top = insertCandidate(w, top, c, measure)
 		}
-		k := 0
-		for k < ns {
-			idx[k]++
-			if idx[k] < len(cands[k]) {
-				break
-			}
-			idx[k] = 0
-			k++
-		}
-		if k == ns {
+		if !nextCombination(idx, func(k int) int { return len(cands[k]) }) {
 			break
 		}
 	}
@@ -867,4 +831,18 @@ func (w *walker) sameSlaved(a, b []float64) bool {
 		}
 	}
 	return true
+}
+
+// nextCombination steps idx, an odometer over choices where digit k has
+// size(k) choices (the first digit fastest), to the next combination; it
+// reports false, with idx back at all zeros, after the last.
+func nextCombination(idx []int, size func(k int) int) bool {
+	for k := range idx {
+		idx[k]++
+		if idx[k] < size(k) {
+			return true
+		}
+		idx[k] = 0
+	}
+	return false
 }

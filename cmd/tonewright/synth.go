@@ -799,11 +799,7 @@ func unmetMessage(res *synth.Result) string {
 	case synth.CauseMaxChanges:
 		msg += " (" + limitCause(res)
 		if u := res.Unlimited; u != nil && u.Met {
-			var sw []string
-			for _, ch := range u.Changes {
-				sw = append(sw, ch.Part)
-			}
-			msg += " " + strings.Join(sw, ", ")
+			msg += " " + swappedParts(u.Changes)
 		}
 		msg += ")"
 	case synth.CauseParts:
@@ -811,11 +807,7 @@ func unmetMessage(res *synth.Result) string {
 	case synth.CauseFree:
 		msg += " (" + freeCause(res)
 		if u := res.Freed; u != nil && u.Met {
-			var sw []string
-			for _, ch := range u.Changes {
-				sw = append(sw, ch.Part)
-			}
-			msg += " " + strings.Join(sw, ", ")
+			msg += " " + swappedParts(u.Changes)
 		}
 		msg += ")"
 	case synth.CauseRange:
@@ -1074,4 +1066,13 @@ func limitBreak(res *synth.Result) string {
 		}
 	}
 	return "no design found meets the targets within the limits; the nearest breaks " + strings.Join(names, ", ")
+}
+
+// swappedParts names the parts a list of swaps changes.
+func swappedParts(changes []synth.Change) string {
+	var sw []string
+	for _, ch := range changes {
+		sw = append(sw, ch.Part)
+	}
+	return strings.Join(sw, ", ")
 }
