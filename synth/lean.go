@@ -301,32 +301,12 @@ func (mf *manifold) step(damping float64) {
 		a[i*w+i] += damping*a[i*w+i] + 1e-12
 		a[i*w+n] = mf.r[i]
 	}
-	for c := 0; c < n; c++ {
-		piv := c
-		for r := c + 1; r < n; r++ {
-			if math.Abs(a[r*w+c]) > math.Abs(a[piv*w+c]) {
-				piv = r
-			}
-		}
-		if piv != c {
-			for k := 0; k < w; k++ {
-				a[c*w+k], a[piv*w+k] = a[piv*w+k], a[c*w+k]
-			}
-		}
-		for r := c + 1; r < n; r++ {
-			f := a[r*w+c] / a[c*w+c]
-			for k := c; k < w; k++ {
-				a[r*w+k] -= f * a[c*w+k]
-			}
-		}
-	}
 	u := mf.rd
-	for c := n - 1; c >= 0; c-- {
-		s := a[c*w+n]
-		for k := c + 1; k < n; k++ {
-			s -= a[c*w+k] * u[k]
+	if !solveAugmented(a, n, u) {
+		// Not reached: the damped normal matrix is positive definite.
+		for i := range u[:n] {
+			u[i] = math.NaN()
 		}
-		u[c] = s / a[c*w+c]
 	}
 	for q := range mf.d[:p] {
 		s := 0.0

@@ -378,6 +378,14 @@ func solveSquare(a0, b0, x []float64, n int) bool {
 		copy(a[i*w:i*w+n], a0[i*n:i*n+n])
 		a[i*w+n] = b0[i]
 	}
+	return solveAugmented(a, n, x)
+}
+
+// solveAugmented solves the n×n system whose augmented matrix [A | b]
+// (n rows of n+1, row-major) is a, overwriting it, by Gaussian elimination
+// with partial pivoting, into x; false when a pivot is zero or NaN.
+func solveAugmented(a []float64, n int, x []float64) bool {
+	w := n + 1
 	for c := 0; c < n; c++ {
 		piv := c
 		for r := c + 1; r < n; r++ {
