@@ -55,34 +55,12 @@ func writeFile(path string, data []byte, inputs ...string) error {
 		}
 		return nil
 	}
-	if real, err := filepath.EvalSymlinks(path); err == nil {
-		path = real
-	}
-	dir := filepath.Dir(path)
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
-	if err != nil {
-		return badInput(fmt.Errorf("cannot write %s: %w", path, errors.Unwrap(err)))
-	}
-	name := tmp.Name()
-	fail := func(err error) error {
-		tmp.Close()
-		os.Remove(name)
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	if _, err := tmp.Write(data); err != nil {
-		return fail(err)
-	}
-	if err := tmp.Chmod(0o644); err != nil {
-		return fail(err)
-	}
-	if err := tmp.Close(); err != nil {
-		return fail(err)
-	}
-	if err := os.Rename(name, path); err != nil {
-		os.Remove(name)
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	return nil
+	return replaceFile(path, func(f *os.File) error {
+		if _, err := f.Write(data); err != nil {
+			return fmt.Errorf("writing %s: %w", path, err)
+		}
+		return nil
+	})
 }
 
 // writeStream writes a file too large to hold in memory: fill writes it
@@ -96,6 +74,13 @@ func writeStream(path string, fill func(f *os.File) error, inputs ...string) err
 	if st, err := os.Stat(path); err == nil && !st.Mode().IsRegular() {
 		return usageErrorf("output %s is not a regular file: give a file name", path)
 	}
+	return replaceFile(path, fill)
+}
+
+// replaceFile has fill write a temporary file in path's directory (path
+// resolved through a symbolic link) and renames it into place only when fill
+// succeeds; a failure removes it and leaves the old file whole.
+func replaceFile(path string, fill func(f *os.File) error) error {
 	if real, err := filepath.EvalSymlinks(path); err == nil {
 		path = real
 	}
