@@ -12,38 +12,39 @@ import (
 
 // The standard-value walk: the discrete stage of a fresh synthesis.
 //
-// The targets fix only as many parts as there are targets (the slaved
-// parts of the lean phase); the exact solutions form a set with one
-// dimension per free part, and the best designs made of allowed values lie
-// along it, not around one point. The walk therefore sweeps the free parts
-// over allowed values: anchors on a grid of them (every allowed pot near
-// the ideal one; each other free part at a few levels a factor walkLevel
-// apart), each anchor pulled onto the targets by solving for the slaved
-// parts. The slaved parts can have more than one solution (see branches):
-// the grid of anchors is walked on each branch found. About each anchor, the local slopes (a Jacobian by differences)
-// predict, for every combination of allowed free values within half a
-// level and of the members below and above each slaved part's solution,
-// the errors and the insertion loss; the best predicted combinations are
-// measured exactly, the best measured are re-anchored and their
-// neighbourhood predicted and measured again, and the best is polished by
-// moves of one or two parts to neighbouring members.
+// The targets fix only as many parts as there are targets; the exact
+// solutions form a set with one dimension per remaining part, and the best
+// designs made of allowed values lie along it, not around one point. The
+// walk therefore first moves the first phase's point along the exact
+// solutions toward the middle of the free parts' ranges (toward), then
+// spreads anchors over the exact solutions (mesh: every allowed pot near
+// it, and at each pot steps along the solutions themselves, each restored
+// onto the targets). About each anchor, the local slopes (a Jacobian by
+// differences) predict, for every combination of allowed values of the
+// parts left free within reach and of the members below and above each
+// solved part's linearised solution, the errors and the insertion loss;
+// the parts solved for are the best-conditioned at that anchor (split).
+// The best predicted combinations are measured exactly, the free values of
+// the best are solved exactly and their roundings measured, the best
+// measured are re-anchored and their neighbourhood predicted and measured
+// again, and the best is polished by moves of one or two parts to
+// neighbouring members.
 //
 // Combinations are ranked first by the targets missed beyond the
 // tolerance, then by the preference: Closest (the largest error in units
 // of FineTolerance, then the sum of squares) or LeastLoss (the gain at
 // 1 kHz, knob 0.5).
 const (
-	walkLevel      = 0.35 // log distance between anchor levels of a free resistor or capacitor (×1.6)
-	walkLevels     = 3    // anchor levels either side of the ideal value
-	walkPotFactor  = 5.0  // pots within this factor of the ideal pot are swept
-	walkPots       = 6    // at most this many pots, the nearest
-	walkMeasure    = 48   // predicted combinations measured exactly
-	walkReanchor   = 8    // measured combinations re-anchored
-	walkRemeasure  = 12   // and combinations measured about each
-	walkAnchorMax  = 300  // anchors at most
-	walkDirect     = 48   // of the predicted, measured as they are
-	walkSolve      = 24   // free combinations of the best predicted solved exactly
-	walkSameBranch = 0.1  // log distance within which two exact designs' slaved parts are one
+	walkPotFactor   = 20.0 // pots within this factor of the start's pot are meshed
+	walkPots        = 6    // at most this many pots, the nearest
+	walkTowardSteps = 8    // steps of toward
+	walkMeasure     = 48   // predicted combinations measured exactly
+	walkReanchor    = 8    // measured combinations re-anchored
+	walkRemeasure   = 12   // and combinations measured about each
+	walkAnchorMax   = 300  // anchors at most
+	walkDirect      = 48   // of the predicted, measured as they are
+	walkSolve       = 24   // free combinations of the best predicted solved exactly
+	walkSameBranch  = 0.1  // log distance within which two exact designs' solved parts are one
 )
 
 // FineTolerance is the unit in which the walk ranks how close a design
@@ -96,7 +97,8 @@ type walker struct {
 	e              *evaluator
 	mf             *manifold
 	slaved, free   []int
-	nt             int // number of targets
+	nonPot         []int // the variables other than pots that can move
+	nt             int   // number of targets
 	tol            Tolerance
 	prefer         Prefer
 	unit           [maxTargets]float64 // IdealTolerance units per FineTolerance unit, per target
@@ -245,44 +247,44 @@ func key(vals []float64) string {
 }
 
 // predictAround ranks, by the slopes at the anchor xa (log values, on the
-// targets), the combinations of allowed values about it: each free part at
-// the members given in freeVals (one list per free part), the slaved parts
+// targets), the combinations of allowed values about it: each of the parts
+// free at the members given in freeVals (one list per part), the slaved parts
 // at the members either side of their linearised solution (and, with
 // wide, one member further either way). It appends the best keep to out.
-func (w *walker) predictAround(xa []float64, freeVals [][]float64, wide bool, keep int) []candidate {
+func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]float64, wide bool, keep int) []candidate {
 	e := w.e
 	nv := len(e.vars)
-	ns := len(w.slaved)
+	ns := len(slaved)
 	var top []candidate
 	// The square system in the slaved parts: Js·Δs = −(r0 + Jf·Δf).
 	js := make([]float64, ns*ns)
 	for i := 0; i < ns; i++ {
-		for k, j := range w.slaved {
+		for k, j := range slaved {
 			js[i*ns+k] = w.jac[i*nv+j]
 		}
 	}
 	rhs := make([]float64, ns)
 	ds := make([]float64, ns)
-	idx := make([]int, len(w.free))
+	idx := make([]int, len(free))
 	vals := make([]float64, nv)
 	dx := make([]float64, nv)
 	pred := make([]float64, w.nt)
 	slavedCands := make([][]float64, ns)
 	sidx := make([]int, ns)
 	for {
-		for q, j := range w.free {
+		for q, j := range free {
 			vals[j] = freeVals[q][idx[q]]
 			dx[j] = math.Log(vals[j]) - xa[j]
 		}
 		for i := 0; i < ns; i++ {
 			s := w.r0[i]
-			for _, j := range w.free {
+			for _, j := range free {
 				s += w.jac[i*nv+j] * dx[j]
 			}
 			rhs[i] = -s
 		}
 		if solveSquare(js, rhs, ds, ns) {
-			for k, j := range w.slaved {
+			for k, j := range slaved {
 				v := &e.vars[j]
 				x := math.Exp(xa[j] + ds[k])
 				cs := candidates(v, x)
@@ -302,7 +304,7 @@ func (w *walker) predictAround(xa []float64, freeVals [][]float64, wide bool, ke
 				ok = ok && len(cs) > 0
 			}
 			for ok {
-				for k, j := range w.slaved {
+				for k, j := range slaved {
 					vals[j] = slavedCands[k][sidx[k]]
 					dx[j] = math.Log(vals[j]) - xa[j]
 				}
@@ -336,6 +338,102 @@ func (w *walker) predictAround(xa []float64, freeVals [][]float64, wide bool, ke
 		}
 	}
 	return top
+}
+
+// split chooses which parts to solve for about an anchor, from the slopes
+// in w.jac: w.nt of the parts other than pots, picked by column-pivoted
+// Gram–Schmidt on the errors' columns (each next the part whose slope is
+// largest once the chosen ones' are taken out), so that the square system
+// in them is well conditioned. The lean phase's fixed choice is nearly
+// singular on parts of the exact solutions (where the low-pass leg's R and
+// C act almost only through their product), and its predictions run wild
+// there. The other parts, pots included, are free.
+func (w *walker) split() (slaved, free []int) {
+	e := w.e
+	nv := len(e.vars)
+	cols := make([][]float64, nv)
+	for _, j := range w.nonPot {
+		c := make([]float64, w.nt)
+		for i := range c {
+			c[i] = w.jac[i*nv+j]
+		}
+		cols[j] = c
+	}
+	for len(slaved) < w.nt {
+		bestJ, bestN := -1, 0.0
+		for j, c := range cols {
+			if c == nil || slices.Contains(slaved, j) {
+				continue
+			}
+			if n := dot(c, c); n > bestN {
+				bestJ, bestN = j, n
+			}
+		}
+		if bestJ < 0 {
+			return w.slaved, w.free
+		}
+		slaved = append(slaved, bestJ)
+		q := cols[bestJ]
+		for j, c := range cols {
+			if c != nil && !slices.Contains(slaved, j) {
+				f := dot(c, q) / bestN
+				for i := range c {
+					c[i] -= f * q[i]
+				}
+			}
+		}
+	}
+	for j := range e.vars {
+		if !slices.Contains(slaved, j) {
+			free = append(free, j)
+		}
+	}
+	return slaved, free
+}
+
+func dot(a, b []float64) float64 {
+	s := 0.0
+	for i := range a {
+		s += a[i] * b[i]
+	}
+	return s
+}
+
+// toward moves x0 (log values, on the targets) along the exact solutions
+// toward the middle of the free parts' ranges (the pots' included), in
+// walkTowardSteps steps, each restored onto the targets, and returns the
+// last point restored. The first phase's point often sits at a range's end
+// (a 1 MΩ leg into 100 pF sections), where the mesh would spend its anchors
+// on designs nobody builds; from the middle it reaches the common values
+// first.
+func (w *walker) toward(x0 []float64) []float64 {
+	e := w.e
+	cur := slices.Clone(x0)
+	x := make([]float64, len(x0))
+	for s := 1; s <= walkTowardSteps; s++ {
+		copy(x, cur)
+		for _, j := range w.free {
+			v := &e.vars[j]
+			x[j] = x0[j] + ((v.lo+v.hi)/2-x0[j])*float64(s)/walkTowardSteps
+		}
+		w.mf.have = false
+		if _, _, ok := w.mf.restore(x, startSteps); !ok {
+			break
+		}
+		copy(cur, x)
+	}
+	return cur
+}
+
+// cmpFloat orders a and b for sorting.
+func cmpFloat(a, b float64) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
 }
 
 // insertCandidate keeps top sorted, best first, at most keep long, without
@@ -418,40 +516,6 @@ func solveAugmented(a []float64, n int, x []float64) bool {
 	return true
 }
 
-// cell lists the members of v's set nearer (in log) to levels[k] than to
-// any other of the levels, and at most walkLevel/2 beyond the outermost
-// (the levels need not be sorted):
-// the free values predicted about the anchor at levels[k]. The levels are
-// snapped to members, so their gaps vary; cells of a fixed width would
-// leave members between two levels that no anchor predicts.
-func cell(v *variable, levels []float64, k int) []float64 {
-	x := math.Log(levels[k])
-	lo, hi := math.Inf(-1), math.Inf(1)
-	for _, l := range levels {
-		switch y := math.Log(l); {
-		case y < x-1e-9:
-			lo = math.Max(lo, (x+y)/2)
-		case y > x+1e-9:
-			hi = math.Min(hi, (x+y)/2)
-		}
-	}
-	if math.IsInf(lo, -1) {
-		lo = x - walkLevel/2
-	}
-	if math.IsInf(hi, 1) {
-		hi = x + walkLevel/2
-	}
-	// The half-open cell [lo, hi), so that a member halfway between two
-	// levels falls in one cell only.
-	var out []float64
-	for _, m := range membersNear(v, (lo+hi)/2, (hi-lo)/2) {
-		if y := math.Log(m); y >= lo-1e-12 && y < hi-1e-12 || same(m, levels[k]) {
-			out = append(out, m)
-		}
-	}
-	return out
-}
-
 // membersNear lists the members of v's set within half-width h (log) of x,
 // at least the nearest one.
 func membersNear(v *variable, x, h float64) []float64 {
@@ -476,10 +540,9 @@ func membersNear(v *variable, x, h float64) []float64 {
 // ideal is overwritten with the exact design nearest them (the free parts
 // at their chosen values) when the targets can be solved there.
 func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort int) ([]float64, bool) {
-	// A higher effort sweeps more levels and pots: level L either side,
-	// pots within a factor F, at most P pots and A anchors.
+	// A higher effort spreads more anchors over more pots: pots within a
+	// factor F, at most P pots and A anchors.
 	effort = max(1, effort)
-	levelsEither := walkLevels + 2*(effort-1)
 	potFactor := walkPotFactor * math.Pow(4, float64(effort-1))
 	maxPots := walkPots + 2*(effort-1)
 	anchorMax := walkAnchorMax * effort * effort
@@ -493,116 +556,34 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort in
 	w.units()
 	w.mf = newManifold(e, slaved, free)
 	w.mf.moving(slaved)
+	for j := range e.vars {
+		if v := &e.vars[j]; v.kind != networks.PartPot && v.lo < v.hi {
+			w.nonPot = append(w.nonPot, j)
+		}
+	}
 	nv := len(e.vars)
 	x0 := make([]float64, nv)
 	for i, v := range ideal {
 		x0[i] = math.Log(v)
 	}
-	// The anchors' free values: every allowed pot near the ideal one, the
-	// other free parts at levels walkLevel apart, each snapped to a
-	// member.
-	levels := make([][]float64, len(free))
-	for q, j := range free {
+	x0 = w.toward(x0)
+	// The pots the anchors take: the allowed ones nearest the start's,
+	// then in order of value, for stepping to neighbours.
+	potVar, pots := -1, []float64{0}
+	for _, j := range free {
 		v := &e.vars[j]
-		if v.kind == networks.PartPot {
-			var ps []float64
-			for _, m := range membersNear(v, x0[j], math.Log(potFactor)) {
-				ps = append(ps, m)
-			}
-			slices.SortStableFunc(ps, func(a, b float64) int {
-				da, db := math.Abs(math.Log(a)-x0[j]), math.Abs(math.Log(b)-x0[j])
-				switch {
-				case da < db:
-					return -1
-				case da > db:
-					return 1
-				}
-				return 0
-			})
-			levels[q] = ps[:min(maxPots, len(ps))]
+		if v.kind != networks.PartPot {
 			continue
 		}
-		for k := -levelsEither; k <= levelsEither; k++ {
-			x := math.Min(math.Max(x0[j]+float64(k)*walkLevel, v.lo), v.hi)
-			if m, err := eseries.Nearest(v.set, math.Exp(x)); err == nil && !slices.ContainsFunc(levels[q], func(y float64) bool { return same(y, m) }) {
-				levels[q] = append(levels[q], m)
-			}
-		}
-		// Nearest first, so that restoring walks outward.
-		slices.SortStableFunc(levels[q], func(a, b float64) int {
-			da, db := math.Abs(math.Log(a)-x0[j]), math.Abs(math.Log(b)-x0[j])
-			switch {
-			case da < db:
-				return -1
-			case da > db:
-				return 1
-			}
-			return 0
+		ps := membersNear(v, x0[j], math.Log(potFactor))
+		slices.SortStableFunc(ps, func(a, b float64) int {
+			return cmpFloat(math.Abs(math.Log(a)-x0[j]), math.Abs(math.Log(b)-x0[j]))
 		})
+		potVar, pots = j, ps[:min(maxPots, len(ps))]
+		slices.Sort(pots)
 	}
-	var top []candidate
-	idx := make([]int, len(free))
+	top, restored := w.mesh(x0, pots, potVar, anchorMax, keep)
 	x := make([]float64, nv)
-	// The anchors of each branch of the exact solutions, in the same
-	// order: earlier[a] are the points earlier branches restored at anchor
-	// a, so that an anchor which falls back onto one of them is not
-	// predicted twice.
-	var all [][]float64 // every branch's restored anchors
-	var earlier [][][]float64
-	for _, b := range w.branches(x0) {
-		anchors := 0
-		var restored [][]float64 // the anchors' points, to start neighbours from
-		clear(idx)
-		for anchors < anchorMax {
-			// Start from the restored anchor nearest in the free parts.
-			start := b
-			bestD := math.Inf(1)
-			for _, r := range restored {
-				d := 0.0
-				for q, j := range free {
-					d += sq(r[j] - math.Log(levels[q][idx[q]]))
-				}
-				if d < bestD {
-					start, bestD = r, d
-				}
-			}
-			copy(x, start)
-			for q, j := range free {
-				x[j] = math.Log(levels[q][idx[q]])
-			}
-			w.mf.have = false
-			_, _, ok := w.mf.restore(x, startSteps)
-			if len(earlier) <= anchors {
-				earlier = append(earlier, nil)
-			}
-			if ok && slices.ContainsFunc(earlier[anchors], func(o []float64) bool { return w.sameSlaved(o, x) }) {
-				ok = false
-			}
-			anchors++
-			if ok {
-				earlier[anchors-1] = append(earlier[anchors-1], slices.Clone(x))
-				restored = append(restored, slices.Clone(x))
-				w.slopes(x)
-				freeVals := make([][]float64, len(free))
-				for q, j := range free {
-					v := &e.vars[j]
-					if v.kind == networks.PartPot {
-						freeVals[q] = []float64{levels[q][idx[q]]}
-					} else {
-						freeVals[q] = cell(v, levels[q], idx[q])
-					}
-				}
-				for _, c := range w.predictAround(x, freeVals, false, keep) {
-					top = insertCandidate(w, top, c, keep)
-				}
-			}
-			if !nextCombination(idx, func(q int) int { return len(levels[q]) }) {
-				break
-			}
-		}
-		all = append(all, restored...)
-	}
-	restored := all
 	for _, c := range top[:min(walkDirect, len(top))] {
 		w.seen[key(c.vals)] = true
 		w.exact(c.vals)
@@ -670,7 +651,7 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort in
 			}
 			freeVals[q] = fv
 		}
-		for _, p := range w.predictAround(x, freeVals, true, walkRemeasure) {
+		for _, p := range w.predictAround(x, w.slaved, w.free, freeVals, true, walkRemeasure) {
 			w.seen[key(p.vals)] = true
 			w.exact(p.vals)
 		}
