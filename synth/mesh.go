@@ -25,6 +25,11 @@ const (
 	meshStep  = 0.7  // largest log change of any part from an anchor to its neighbour (×2)
 	meshMerge = 0.5  // a new anchor this close (in steps, largest log distance) to another is one
 	meshReach = 0.75 // free values predicted within this many steps of an anchor
+	// at most this many of them per part, the nearest: all of an E24
+	// series's within reach, a ninth of E96's width of them (the dense
+	// series hold close designs everywhere, and their combinations would
+	// cost more than the evaluations)
+	meshMembers = 13
 )
 
 // mesh places up to anchorMax anchors over the exact solutions from the
@@ -41,9 +46,21 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 	x := make([]float64, nv)
 	w.mf.moving(w.nonPot)
 	defer w.mf.moving(w.slaved)
-	restore := func(start []float64) bool {
+	restore := func(start []float64, seeded bool) bool {
 		copy(x, start)
 		w.mf.have = false
+		if seeded {
+			// The anchor's slopes as the first Jacobian: a step from
+			// the anchor starts near the targets, and restore
+			// recomputes the Jacobian when a step with it fails.
+			p := len(w.nonPot)
+			for i := 0; i < w.nt; i++ {
+				for k, j := range w.nonPot {
+					w.mf.jac[i*p+k] = w.jac[i*nv+j]
+				}
+			}
+			w.mf.have, w.mf.exact = true, false
+		}
 		_, _, ok := w.mf.restore(x, startSteps)
 		return ok
 	}
@@ -75,7 +92,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			if potVar >= 0 {
 				start[potVar] = math.Log(p)
 			}
-			if restore(start) {
+			if restore(start, false) {
 				queue = append(queue, slices.Clone(x))
 			}
 		}
@@ -104,7 +121,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			if v.kind == networks.PartPot {
 				fv[q] = []float64{math.Exp(a[j])}
 			} else {
-				fv[q] = membersNear(v, a[j], meshReach*meshStep)
+				fv[q] = nearestMembers(membersNear(v, a[j], meshReach*meshStep), a[j], meshMembers)
 			}
 		}
 		for _, c := range w.predictAround(a, sl, fr, fv, false, keep) {
@@ -141,7 +158,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 				for j := range start {
 					start[j] += dir[j]
 				}
-				if !near(start) && restore(start) && !near(x) {
+				if !near(start) && restore(start, true) && !near(x) {
 					queue = append(queue, slices.Clone(x))
 				}
 			}
@@ -155,11 +172,24 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 				}
 				start := slices.Clone(a)
 				start[potVar] = math.Log(pots[pi+d])
-				if !near(start) && restore(start) && !near(x) {
+				if !near(start) && restore(start, true) && !near(x) {
 					queue = append(queue, slices.Clone(x))
 				}
 			}
 		}
 	}
 	return top, anchors
+}
+
+// nearestMembers keeps the n of ms nearest x (a log value), in their order.
+func nearestMembers(ms []float64, x float64, n int) []float64 {
+	for len(ms) > n {
+		// Drop the farther end.
+		if x-math.Log(ms[0]) > math.Log(ms[len(ms)-1])-x {
+			ms = ms[1:]
+		} else {
+			ms = ms[:len(ms)-1]
+		}
+	}
+	return ms
 }
