@@ -39,10 +39,10 @@
 // loss.
 //
 // The discrete stage of a fresh synthesis walks the exact solutions (see
-// walk.go): the free parts swept over allowed values, the others solved
-// for the targets on each branch of the solutions found (the targets can
-// be met with the low-pass leg high in impedance or low), nearby
-// combinations of allowed values ranked by the local slopes, the best
+// walk.go and mesh.go): from near the middle of the part ranges, anchors
+// spread over the solutions by steps along them at each allowed pot near,
+// and about each anchor the combinations of allowed values ranked by the
+// local slopes (solving for the parts best conditioned there), the best
 // measured and polished by moves of one or two parts. Among the designs within the tolerance it prefers the closest
 // (Closest) or the one of least loss (LeastLoss, Options.Prefer). A
 // re-voicing snaps jointly: every combination of the members just below
