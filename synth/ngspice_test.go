@@ -33,21 +33,7 @@ func (s *spiceResponse) GainDB(f float64) float64 {
 // far below the tolerances.
 func runSpice(t *testing.T, d *networks.Design, p float64) *spiceResponse {
 	t.Helper()
-	c := d.Chain(p)
-	var deck strings.Builder
-	if err := c.Network().WriteSPICE(&deck, "synth check", networks.Band{From: d.Band.From, To: 10 * d.Band.To}, 2000); err != nil {
-		t.Fatal(err)
-	}
-	pts, err := networks.RunNgspice(deck.String(), networks.NodeOut)
-	if err != nil {
-		t.Fatal(err)
-	}
-	r := &spiceResponse{}
-	for _, pt := range pts {
-		r.hz = append(r.hz, pt.Hz)
-		r.db = append(r.db, 20*math.Log10(cmplx.Abs(pt.V)))
-	}
-	return r
+	return spiceAt(t, d, map[string]float64{"blend": p})
 }
 
 // An independent check of the achieved figures: the chosen design is
