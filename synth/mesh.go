@@ -86,8 +86,9 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			return cmpFloat(math.Abs(math.Log(a)-x0[potVar]), math.Abs(math.Log(b)-x0[potVar]))
 		})
 	}
+	branches := w.branches(x0)
 	for _, p := range byNear {
-		for _, b := range w.branches(x0) {
+		for _, b := range branches {
 			start := slices.Clone(b)
 			if potVar >= 0 {
 				start[potVar] = math.Log(p)
@@ -95,6 +96,13 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			if restore(start, false) {
 				queue = append(queue, slices.Clone(x))
 			}
+		}
+	}
+	// enqueue restores a step from an anchor and queues it when neither the
+	// step nor where it lands is near an anchor.
+	enqueue := func(start []float64) {
+		if !near(start) && restore(start, true) && !near(x) {
+			queue = append(queue, slices.Clone(x))
 		}
 	}
 	var null mat.Dense
@@ -158,9 +166,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 				for j := range start {
 					start[j] += dir[j]
 				}
-				if !near(start) && restore(start, true) && !near(x) {
-					queue = append(queue, slices.Clone(x))
-				}
+				enqueue(start)
 			}
 		}
 		// And to the neighbouring pots.
@@ -172,9 +178,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 				}
 				start := slices.Clone(a)
 				start[potVar] = math.Log(pots[pi+d])
-				if !near(start) && restore(start, true) && !near(x) {
-					queue = append(queue, slices.Clone(x))
-				}
+				enqueue(start)
 			}
 		}
 	}

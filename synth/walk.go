@@ -6,6 +6,8 @@ import (
 	"slices"
 	"strings"
 
+	"gonum.org/v1/gonum/floats"
+
 	"tonewright/eseries"
 	"tonewright/networks"
 )
@@ -365,7 +367,7 @@ func (w *walker) split() (slaved, free []int) {
 			if c == nil || slices.Contains(slaved, j) {
 				continue
 			}
-			if n := dot(c, c); n > bestN {
+			if n := floats.Dot(c, c); n > bestN {
 				bestJ, bestN = j, n
 			}
 		}
@@ -376,7 +378,7 @@ func (w *walker) split() (slaved, free []int) {
 		q := cols[bestJ]
 		for j, c := range cols {
 			if c != nil && !slices.Contains(slaved, j) {
-				f := dot(c, q) / bestN
+				f := floats.Dot(c, q) / bestN
 				for i := range c {
 					c[i] -= f * q[i]
 				}
@@ -389,14 +391,6 @@ func (w *walker) split() (slaved, free []int) {
 		}
 	}
 	return slaved, free
-}
-
-func dot(a, b []float64) float64 {
-	s := 0.0
-	for i := range a {
-		s += a[i] * b[i]
-	}
-	return s
 }
 
 // toward moves x0 (log values, on the targets) along the exact solutions
