@@ -231,7 +231,7 @@ func (p *Problem) variables(d *networks.Design, s *sets) ([]variable, error) {
 		if original > 0 {
 			lo, hi = math.Min(lo, original), math.Max(hi, original)
 		}
-		return variable{name: name, role: roleText, parts: names, kind: kind, set: set, setName: setName,
+		return variable{name: name, role: roleText, parts: names, kind: kind, set: listed(set), setName: setName,
 			lo: math.Log(lo), hi: math.Log(hi), original: original}
 	}
 	var vs []variable
