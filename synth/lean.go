@@ -73,6 +73,9 @@ type manifold struct {
 	// leastSquares lets restoring move fewer variables than there are
 	// targets (the damped least-squares step), for the nearest figures.
 	leastSquares bool
+	// tol is the largest error restore leaves, in units of
+	// IdealTolerance; 0: restoreTol.
+	tol float64
 }
 
 // slavedVars returns the indices of the variables the lean phase solves
@@ -183,8 +186,12 @@ func (mf *manifold) restore(x []float64, steps int) (gain, ss float64, ok bool) 
 	if mf.leastSquares {
 		damping = 1e-3
 	}
+	tol := restoreTol
+	if mf.tol > 0 {
+		tol = mf.tol
+	}
 	blocked := 0 // steps in a row that ran into a bound
-	for step := 0; step < steps && !(worst <= restoreTol) && (blocked < maxBlocked || mf.leastSquares); step++ {
+	for step := 0; step < steps && !(worst <= tol) && (blocked < maxBlocked || mf.leastSquares); step++ {
 		if !mf.have {
 			mf.jacobian(x)
 		}
@@ -234,7 +241,7 @@ func (mf *manifold) restore(x []float64, steps int) (gain, ss float64, ok bool) 
 			damping *= 100
 		}
 	}
-	return gain, ss, worst <= restoreTol
+	return gain, ss, worst <= tol
 }
 
 // solve writes to mf.d the damped step from x for the errors mf.r in the

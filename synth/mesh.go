@@ -6,6 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
+	"tonewright/eseries"
 	"tonewright/networks"
 )
 
@@ -21,6 +22,14 @@ import (
 // the targets by the least change, and keeps it when no anchor with the
 // same pot lies within meshMerge steps, until the anchors run out: in rings
 // about the start, every part's log value moving at most meshStep a step.
+// A step is restored only when its turn comes (the steps still queued when
+// the anchors run out cost nothing), and one near a step already queued is
+// not queued. Each pot starts from the start's branches restored at it and
+// from a few steps off anchors at the neighbouring pots. Anchors cost an
+// evaluation per part for the slopes and about two restores; the slopes
+// are not reused from the restore's (Broyden-updated) Jacobian, which
+// ranks the predictions so much worse that the exact design of allowed
+// values is found in fewer cases for the same time.
 const (
 	meshStep  = 0.7  // largest log change of any part from an anchor to its neighbour (×2)
 	meshMerge = 0.5  // a new anchor this close (in steps, largest log distance) to another is one
@@ -30,6 +39,14 @@ const (
 	// series hold close designs everywhere, and their combinations would
 	// cost more than the evaluations)
 	meshMembers = 13
+	// at most this many steps to each pot from anchors at its neighbours:
+	// the first reach its exact solutions where the start's branches
+	// restored at it do not, the rest would only land on anchors there
+	meshPotSteps = 8
+	// an anchor is restored to within this many IdealTolerance units:
+	// the predictions start from its errors, so it need not lie on the
+	// targets, only near enough for the slopes to hold
+	meshTol = 1.0
 )
 
 // mesh places up to anchorMax anchors over the exact solutions from the
@@ -40,44 +57,52 @@ const (
 func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep int) ([]candidate, [][]float64) {
 	e := w.e
 	nv := len(e.vars)
-	var top []candidate
+	list := newShortlist(w, keep)
 	var anchors [][]float64
-	var queue [][]float64
+	// The queue holds steps not yet restored, each with the slopes of the
+	// anchor it leaves (nil for the starts): a step is restored only when
+	// its turn comes, so the steps still queued when the anchors run out
+	// cost nothing.
+	type step struct{ start, slopes []float64 }
+	var queue []step
+	head := 0 // queue[head:] are waiting
 	x := make([]float64, nv)
 	w.mf.moving(w.nonPot)
-	defer w.mf.moving(w.slaved)
-	restore := func(start []float64, seeded bool) bool {
+	w.mf.tol = meshTol
+	defer func() {
+		w.mf.moving(w.slaved)
+		w.mf.tol = 0
+	}()
+	var gain float64
+	restore := func(start, slopes []float64) bool {
 		copy(x, start)
 		w.mf.have = false
-		if seeded {
+		if slopes != nil {
 			// The anchor's slopes as the first Jacobian: a step from
 			// the anchor starts near the targets, and restore
 			// recomputes the Jacobian when a step with it fails.
-			p := len(w.nonPot)
-			for i := 0; i < w.nt; i++ {
-				for k, j := range w.nonPot {
-					w.mf.jac[i*p+k] = w.jac[i*nv+j]
-				}
-			}
+			copy(w.mf.jac, slopes)
 			w.mf.have, w.mf.exact = true, false
 		}
-		_, _, ok := w.mf.restore(x, startSteps)
+		var ok bool
+		gain, _, ok = w.mf.restore(x, startSteps)
 		return ok
 	}
-	near := func(y []float64) bool {
-		for _, a := range anchors {
-			if potVar >= 0 && !same(math.Exp(a[potVar]), math.Exp(y[potVar])) {
-				continue
-			}
-			d := 0.0
-			for _, j := range w.nonPot {
-				d = math.Max(d, math.Abs(a[j]-y[j]))
-			}
-			if d < meshMerge*meshStep {
-				return true
+	// nearOne reports whether y lies within meshMerge steps of a (the
+	// largest log distance over the parts other than pots) at the same pot.
+	nearOne := func(y, a []float64) bool {
+		if potVar >= 0 && math.Abs(a[potVar]-y[potVar]) > eseries.RelTol {
+			return false
+		}
+		for _, j := range w.nonPot {
+			if math.Abs(a[j]-y[j]) >= meshMerge*meshStep {
+				return false
 			}
 		}
-		return false
+		return true
+	}
+	near := func(y []float64) bool {
+		return slices.ContainsFunc(anchors, func(a []float64) bool { return nearOne(y, a) })
 	}
 	// The starts: each branch at each pot, the nearest pots first.
 	byNear := slices.Clone(pots)
@@ -93,17 +118,23 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			if potVar >= 0 {
 				start[potVar] = math.Log(p)
 			}
-			if restore(start, false) {
-				queue = append(queue, slices.Clone(x))
-			}
+			queue = append(queue, step{start: start})
 		}
 	}
-	// enqueue restores a step from an anchor and queues it when neither the
-	// step nor where it lands is near an anchor.
+	// enqueue queues a step from the anchor whose slopes are in w.jac
+	// unless it is near an anchor already.
 	enqueue := func(start []float64) {
-		if !near(start) && restore(start, true) && !near(x) {
-			queue = append(queue, slices.Clone(x))
+		if near(start) || slices.ContainsFunc(queue[head:], func(q step) bool { return nearOne(start, q.start) }) {
+			return
 		}
+		p := len(w.nonPot)
+		slopes := make([]float64, w.nt*p)
+		for i := 0; i < w.nt; i++ {
+			for k, j := range w.nonPot {
+				slopes[i*p+k] = w.jac[i*nv+j]
+			}
+		}
+		queue = append(queue, step{start, slopes})
 	}
 	var null mat.Dense
 	var svd mat.SVD
@@ -112,14 +143,21 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 		jn = mat.NewDense(w.nt, len(w.nonPot), nil)
 	}
 	dir := make([]float64, nv)
-	for len(queue) > 0 && len(anchors) < anchorMax {
-		a := queue[0]
-		queue = queue[1:]
-		if near(a) {
+	potSteps := make([]int, len(pots)) // steps queued to each pot from its neighbours
+	for head < len(queue) && len(anchors) < anchorMax {
+		st := queue[head]
+		head++
+		// A step is restored when neither it nor where it lands is near
+		// an anchor.
+		if near(st.start) || !restore(st.start, st.slopes) || near(x) {
 			continue
 		}
+		a := slices.Clone(x)
 		anchors = append(anchors, a)
-		w.slopes(a)
+		// The slopes in the parts other than pots (the pot stays at
+		// its member about an anchor), from the errors restore
+		// measured at a.
+		w.slopes(a, w.nonPot, w.mf.r, gain)
 		// Predict about the anchor, solving for its best-conditioned
 		// parts.
 		sl, fr := w.split()
@@ -132,9 +170,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 				fv[q] = nearestMembers(membersNear(v, a[j], meshReach*meshStep), a[j], meshMembers)
 			}
 		}
-		for _, c := range w.predictAround(a, sl, fr, fv, false, keep) {
-			top = insertCandidate(w, top, c, keep)
-		}
+		w.predictAround(a, sl, fr, fv, false, list)
 		// The directions along the exact solutions: the null space of
 		// the errors' slopes in the parts other than pots.
 		if jn == nil {
@@ -173,16 +209,17 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 		if potVar >= 0 {
 			pi := slices.IndexFunc(pots, func(p float64) bool { return same(p, math.Exp(a[potVar])) })
 			for _, d := range []int{-1, 1} {
-				if pi < 0 || pi+d < 0 || pi+d >= len(pots) {
+				if pi < 0 || pi+d < 0 || pi+d >= len(pots) || potSteps[pi+d] >= meshPotSteps {
 					continue
 				}
+				potSteps[pi+d]++
 				start := slices.Clone(a)
 				start[potVar] = math.Log(pots[pi+d])
 				enqueue(start)
 			}
 		}
 	}
-	return top, anchors
+	return list.c, anchors
 }
 
 // nearestMembers keeps the n of ms nearest x (a log value), in their order.
