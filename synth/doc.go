@@ -42,8 +42,9 @@
 // walk.go and mesh.go): from near the middle of the part ranges, anchors
 // spread over the solutions by steps along them at each allowed pot near,
 // and about each anchor the combinations of allowed values ranked by the
-// local slopes (solving for the parts best conditioned there), the best
-// measured and polished by moves of one or two parts. Among the designs within the tolerance it prefers the closest
+// local slopes (solving for the parts best conditioned there), the few
+// hundred best measured (shortlist.go) and the best polished by moves of
+// one or two parts. Among the designs within the tolerance it prefers the closest
 // (Closest) or the one of least loss (LeastLoss, Options.Prefer). A
 // re-voicing snaps jointly: every combination of the members just below
 // and just above each ideal value, then single-part (and, when those

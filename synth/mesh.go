@@ -31,7 +31,7 @@ import (
 // ranks the predictions so much worse that the exact design of allowed
 // values is found in fewer cases for the same time.
 const (
-	meshStep  = 0.7  // largest log change of any part from an anchor to its neighbour (×2)
+	meshStep  = 0.7  // largest log change of any part from an anchor to its neighbour (×2), at effort 1; /√effort above
 	meshMerge = 0.5  // a new anchor this close (in steps, largest log distance) to another is one
 	meshReach = 0.75 // free values predicted within this many steps of an anchor
 	// at most this many of them per part, the nearest: all of an E24
@@ -49,12 +49,12 @@ const (
 	meshTol = 1.0
 )
 
-// mesh places up to anchorMax anchors over the exact solutions from the
-// branches of x0 (log values, on the targets) at each of pots, predicts the
-// combinations of allowed values about each and returns the best keep
-// predicted and the anchors. pots are in order of value; potVar is the
+// mesh places up to anchorMax anchors over the exact solutions, steps of
+// stepLen apart, from the branches of x0 (log values, on the targets) at
+// each of pots, predicts the combinations of allowed values about each and
+// returns the best keep predicted. pots are in order of value; potVar is the
 // pot's variable, -1 when the network has none.
-func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep int) ([]candidate, [][]float64) {
+func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep int, stepLen float64) []candidate {
 	e := w.e
 	nv := len(e.vars)
 	list := newShortlist(w, keep)
@@ -95,7 +95,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			return false
 		}
 		for _, j := range w.nonPot {
-			if math.Abs(a[j]-y[j]) >= meshMerge*meshStep {
+			if math.Abs(a[j]-y[j]) >= meshMerge*stepLen {
 				return false
 			}
 		}
@@ -167,7 +167,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			if v.kind == networks.PartPot {
 				fv[q] = []float64{math.Exp(a[j])}
 			} else {
-				fv[q] = nearestMembers(membersNear(v, a[j], meshReach*meshStep), a[j], meshMembers)
+				fv[q] = nearestMembers(membersNear(v, a[j], meshReach*stepLen), a[j], meshMembers)
 			}
 		}
 		w.predictAround(a, sl, fr, fv, false, list)
@@ -196,7 +196,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			for _, sign := range []float64{1, -1} {
 				clear(dir)
 				for q, j := range w.nonPot {
-					dir[j] = sign * meshStep * null.At(q, k) / big
+					dir[j] = sign * stepLen * null.At(q, k) / big
 				}
 				start := slices.Clone(a)
 				for j := range start {
@@ -219,7 +219,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			}
 		}
 	}
-	return list.c, anchors
+	return list.c
 }
 
 // nearestMembers keeps the n of ms nearest x (a log value), in their order.
