@@ -29,7 +29,9 @@ import (
 // evaluation per part for the slopes and about two restores; the slopes
 // are not reused from the restore's (Broyden-updated) Jacobian, which
 // ranks the predictions so much worse that the exact design of allowed
-// values is found in fewer cases for the same time.
+// values is found in fewer cases for the same time. The predictions are
+// made once every anchor is placed, each with how its slopes change toward
+// its neighbours (curvature.go).
 const (
 	meshStep  = 0.7  // largest log change of any part from an anchor to its neighbour (×2), at effort 1; /√effort above
 	meshMerge = 0.5  // a new anchor this close (in steps, largest log distance) to another is one
@@ -58,7 +60,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 	e := w.e
 	nv := len(e.vars)
 	list := newShortlist(w, keep)
-	var anchors [][]float64
+	var anchors []meshAnchor
 	// The queue holds steps not yet restored, each with the slopes of the
 	// anchor it leaves (nil for the starts): a step is restored only when
 	// its turn comes, so the steps still queued when the anchors run out
@@ -102,7 +104,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 		return true
 	}
 	near := func(y []float64) bool {
-		return slices.ContainsFunc(anchors, func(a []float64) bool { return nearOne(y, a) })
+		return slices.ContainsFunc(anchors, func(a meshAnchor) bool { return nearOne(y, a.x) })
 	}
 	// The starts: each branch at each pot, the nearest pots first.
 	byNear := slices.Clone(pots)
@@ -153,13 +155,13 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			continue
 		}
 		a := slices.Clone(x)
-		anchors = append(anchors, a)
 		// The slopes in the parts other than pots (the pot stays at
 		// its member about an anchor), from the errors restore
 		// measured at a.
 		w.slopes(a, w.nonPot, w.mf.r, gain)
-		// Predict about the anchor, solving for its best-conditioned
-		// parts.
+		// The parts to solve for about the anchor (its best
+		// conditioned) and the free values to predict; the predictions
+		// wait for the neighbours' slopes.
 		sl, fr := w.split()
 		fv := make([][]float64, len(fr))
 		for q, j := range fr {
@@ -170,7 +172,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 				fv[q] = nearestMembers(membersNear(v, a[j], meshReach*stepLen), a[j], meshMembers)
 			}
 		}
-		w.predictAround(a, sl, fr, fv, false, list)
+		anchors = append(anchors, meshAnchor{x: a, r0: slices.Clone(w.r0), jac: slices.Clone(w.jac), slaved: sl, free: fr, freeVals: fv})
 		// The directions along the exact solutions: the null space of
 		// the errors' slopes in the parts other than pots.
 		if jn == nil {
@@ -218,6 +220,14 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 				enqueue(start)
 			}
 		}
+	}
+	// Predict about each anchor, once its neighbours' slopes tell how its
+	// own change.
+	for i := range anchors {
+		a := &anchors[i]
+		copy(w.jac, a.jac)
+		copy(w.r0, a.r0)
+		w.predictAround(a.x, a.slaved, a.free, a.freeVals, false, list, w.curvatureAt(anchors, i, potVar, stepLen))
 	}
 	return list.c
 }

@@ -257,8 +257,12 @@ func key(vals []float64) string {
 // targets), the combinations of allowed values about it: each of the parts
 // free at the members given in freeVals (one list per part), the slaved parts
 // at the members either side of their linearised solution (and, with
-// wide, one member further either way). It adds them to list.
-func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]float64, wide bool, list *shortlist) {
+// wide, one member further either way). It adds them to list. With curv,
+// the predictions take in how the slopes change (see curvature): for each
+// combination of the free parts, the errors and the slopes are carried to
+// the point where the slopes solve the slaved parts, the slaved parts are
+// solved again there, and the combinations about it predicted from there.
+func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]float64, wide bool, list *shortlist, curv *curvature) {
 	e := w.e
 	nv := len(e.vars)
 	ns := len(slaved)
@@ -290,6 +294,11 @@ func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]fl
 	slavedCands := make([][]float64, ns)
 	sidx := make([]int, ns)
 	pred := make([]float64, nt)
+	rp := make([]float64, nt+1)
+	jp := make([]float64, (nt+1)*ns)
+	centre := make([]float64, ns)
+	step := make([]float64, ns)
+	dx := make([]float64, nv)
 	for {
 		copy(base, w.r0)
 		for q, j := range free {
@@ -304,10 +313,58 @@ func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]fl
 			rhs[i] = -base[i]
 		}
 		if solveSquare(js, rhs, ds, ns) {
+			// rp and jp: the errors and gain, and their slopes in the
+			// slaved parts, at p (the free parts at their members, the
+			// slaved ones at ds from the anchor).
+			copy(rp, base)
+			for i := 0; i <= nt; i++ {
+				for k, j := range slaved {
+					jp[i*ns+k] = w.jac[i*nv+j]
+					rp[i] += w.jac[i*nv+j] * ds[k]
+				}
+			}
+			copy(centre, ds)
+			if curv != nil {
+				clear(dx)
+				for q, j := range free {
+					dx[j] = freeDx[q][idx[q]]
+				}
+				for k, j := range slaved {
+					dx[j] = ds[k]
+				}
+				curv.weights(dx)
+				for q, wq := range curv.w {
+					if wq == 0 {
+						continue
+					}
+					dj := curv.dJ[q]
+					for i := 0; i <= nt; i++ {
+						row := dj[i*nv : (i+1)*nv]
+						s := 0.0
+						for j, v := range row {
+							s += v * dx[j]
+						}
+						rp[i] += 0.5 * wq * s
+						for k, j := range slaved {
+							jp[i*ns+k] += wq * row[j]
+						}
+					}
+				}
+				// One Newton step for the slaved parts with the slopes
+				// at p.
+				for i := 0; i < ns; i++ {
+					rhs[i] = -rp[i]
+				}
+				if solveSquare(jp[:ns*ns], rhs, step, ns) {
+					for k := range centre {
+						centre[k] += step[k]
+					}
+				}
+			}
 			ok := true
 			for k, j := range slaved {
 				v := &e.vars[j]
-				cs := candidates(v, math.Exp(xa[j]+ds[k]))
+				cs := candidates(v, math.Exp(xa[j]+centre[k]))
 				if wide && len(cs) > 0 {
 					if p, ok := eseries.Prev(v.set, cs[0]); ok {
 						cs = append([]float64{p}, cs...)
@@ -323,21 +380,21 @@ func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]fl
 					contrib[k] = append(contrib[k], make([]float64, nt+1))
 				}
 				for m, c := range cs {
-					d := math.Log(c) - xa[j]
+					d := math.Log(c) - xa[j] - ds[k]
 					for i := 0; i <= nt; i++ {
-						contrib[k][m][i] = w.jac[i*nv+j] * d
+						contrib[k][m][i] = jp[i*ns+k] * d
 					}
 				}
 			}
 			for ok {
 				for i := 0; i < nt; i++ {
-					s := base[i]
+					s := rp[i]
 					for k := range slaved {
 						s += contrib[k][sidx[k]][i]
 					}
 					pred[i] = s
 				}
-				gain := base[nt]
+				gain := rp[nt]
 				for k := range slaved {
 					gain += contrib[k][sidx[k]][nt]
 				}
@@ -624,7 +681,7 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort in
 			freeVals[q] = fv
 		}
 		list := newShortlist(w, walkRemeasure)
-		w.predictAround(x, w.slaved, w.free, freeVals, true, list)
+		w.predictAround(x, w.slaved, w.free, freeVals, true, list, nil)
 		for _, p := range list.c {
 			w.seen[key(p.vals)] = true
 			w.exact(p.vals)
@@ -633,17 +690,24 @@ func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort in
 	best := w.best[0]
 	vals := w.descend(slices.Clone(best.vals))
 	// The exact design nearest the chosen one: the free parts at their
-	// chosen values, the slaved parts solved for the targets. It is the
-	// ideal the report compares the chosen parts with.
-	for j := range x {
-		x[j] = math.Log(vals[j])
-	}
-	w.mf.have = false
-	if _, _, ok := w.mf.restore(x, startSteps); ok {
-		for j := range ideal {
-			ideal[j] = math.Exp(x[j])
+	// chosen values, the slaved parts solved for the targets, or where
+	// they cannot be, the least change of the parts other than pots that
+	// meets the targets. It is the ideal the report compares the chosen
+	// parts with.
+	for _, move := range [][]int{w.slaved, w.nonPot} {
+		for j := range x {
+			x[j] = math.Log(vals[j])
+		}
+		w.mf.moving(move)
+		_, _, ok := w.mf.restore(x, startSteps)
+		if ok {
+			for j := range ideal {
+				ideal[j] = math.Exp(x[j])
+			}
+			break
 		}
 	}
+	w.mf.moving(w.slaved)
 	e.setValues(vals)
 	return vals, true
 }
