@@ -287,8 +287,9 @@ func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]fl
 	idx := make([]int, len(free))
 	vals := make([]float64, nv)
 	// base: the errors and the gain predicted with the free parts moved
-	// and the slaved ones at the anchor; contrib[k][m]: what the slaved
-	// part k at its member m adds to them (nt+1 each).
+	// and the slaved ones at the anchor; rp: at p, the slaved ones moved
+	// to their solution too; contrib[k][m]: what the slaved part k at its
+	// member m adds to rp (nt+1 each).
 	base := make([]float64, nt+1)
 	contrib := make([][][]float64, ns)
 	slavedCands := make([][]float64, ns)
