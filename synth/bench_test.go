@@ -121,3 +121,73 @@ func BenchmarkSolveEffort(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkRevoiceStack10 re-voices ten parts of the invented three-knob
+// stack chain (testdata/examples/stack-chain.yaml: seven tone parts and
+// two RC sections; every part free but the treble capacitor) to the
+// figures of the same chain with four other values: a mid scoop and the
+// gain at 100 Hz with every knob at its centre, and the corner with the
+// treble full down. The goal is under 5 s per operation on one core:
+// go test -run XXX -bench RevoiceStack10 -benchtime 1x -cpu 1 ./synth
+func BenchmarkRevoiceStack10(b *testing.B) {
+	load := func() *networks.Design {
+		d, err := networks.LoadDesign("../testdata/examples/stack-chain.yaml")
+		if err != nil {
+			b.Fatal(err)
+		}
+		return d
+	}
+	moved := load()
+	for i := range moved.Tone.Parts {
+		switch p := &moved.Tone.Parts[i]; p.Name {
+		case "Rslope":
+			p.Value = 56e3
+		case "Cb":
+			p.Value = 18e-9
+		case "Cm":
+			p.Value = 39e-9
+		}
+	}
+	moved.Filters[0].C, moved.Filters[1].C = 1.2e-9, 1.2e-9
+	mid := map[string]float64{"treble": 0.5, "bass": 0.5, "mid": 0.5}
+	dark := map[string]float64{"treble": 0, "bass": 0.5, "mid": 0.5}
+	at := func(k map[string]float64) networks.Evaluator {
+		s, err := moved.Setting(k)
+		if err != nil {
+			b.Fatal(err)
+		}
+		ev, err := moved.Compile(s)
+		if err != nil {
+			b.Fatal(err)
+		}
+		return ev
+	}
+	m := networks.NewMeter(moved.Band)
+	s, ok := m.Scoop(at(mid))
+	if !ok {
+		b.Fatal("the moved stack has no scoop with its knobs at the centre")
+	}
+	corner, ok := m.Corner(at(dark))
+	if !ok {
+		b.Fatal("the moved stack has no corner with the treble full down")
+	}
+	items := []Item{
+		{Knobs: mid, Kind: ItemScoop, Hz: s.Hz, DepthDB: s.DepthDB, BalanceDB: ptr(s.BalanceDB)},
+		{Knobs: mid, Kind: ItemGain, Hz: 100, DB: at(mid).GainDB(100)},
+		{Knobs: dark, Kind: ItemCorner, Hz: corner},
+	}
+	free := []string{"Rslope", "treble", "bass", "mid", "Cb", "Cm", "filter1.r", "filter1.c", "filter2.r", "filter2.c"}
+	p := &Problem{Items: items, From: load(), Free: free}
+	evals := 0
+	for i := 0; i < b.N; i++ {
+		r, err := Solve(p, Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		evals = r.Evaluations
+		if !r.Met {
+			b.Fatalf("not met: %+v", r.Checks)
+		}
+	}
+	b.ReportMetric(float64(evals), "evals/op")
+}
