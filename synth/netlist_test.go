@@ -71,17 +71,7 @@ func TestRevoiceListForm(t *testing.T) {
 	}
 	moved := blendNetlist(18e-9)
 	m := networks.NewMeter(moved.Band)
-	at := func(p float64) networks.Evaluator {
-		s, err := moved.Setting(map[string]float64{"blend": p})
-		if err != nil {
-			t.Fatal(err)
-		}
-		ev, err := moved.Compile(s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		return ev
-	}
+	at := func(p float64) networks.Evaluator { return compiledAt(t, moved, map[string]float64{"blend": p}) }
 	s, _ := m.Scoop(at(0.5))
 	corner, _ := m.Corner(at(1))
 	items := []Item{
@@ -122,12 +112,7 @@ func TestCurveFitBack(t *testing.T) {
 	for _, f := range networks.LogGrid(20, 20e3, 60) {
 		sb.WriteString(strconv.FormatFloat(f, 'g', 6, 64))
 		for _, p := range []float64{0, 0.5, 1} {
-			s, _ := target.Setting(map[string]float64{"blend": p})
-			ev, err := target.Compile(s)
-			if err != nil {
-				t.Fatal(err)
-			}
-			fmt.Fprintf(&sb, ",%.4f,0", ev.GainDB(f))
+			fmt.Fprintf(&sb, ",%.4f,0", compiledAt(t, target, map[string]float64{"blend": p}).GainDB(f))
 		}
 		sb.WriteString("\n")
 	}
@@ -147,4 +132,18 @@ func TestCurveFitBack(t *testing.T) {
 			t.Errorf("%s: RMS %.3f dB, worst %.3f dB; want under 0.05 dB RMS (changes %+v)", cf.Setting, cf.RMSDB, cf.WorstDB, r.Changes)
 		}
 	}
+}
+
+// compiledAt compiles d with its knobs set as knobs says.
+func compiledAt(tb testing.TB, d *networks.Design, knobs map[string]float64) networks.Evaluator {
+	tb.Helper()
+	s, err := d.Setting(knobs)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	ev, err := d.Compile(s)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return ev
 }
