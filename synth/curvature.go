@@ -29,6 +29,9 @@ const (
 	curvatureReach = 1.6  // neighbours within this many steps (largest log distance)
 	curvatureMax   = 8    // at most this many, the nearest
 	curvatureCut   = 0.15 // directions the neighbours span less than this (of the widest) are not used
+	// a Newton step of the solved parts longer than this (in log) with the
+	// second-order model leaves the first-order prediction standing
+	curvatureStepMax = 0.25
 )
 
 // meshAnchor is an anchor with the slopes and split measured at it.
@@ -45,6 +48,9 @@ type meshAnchor struct {
 func (w *walker) curvatureAt(anchors []meshAnchor, i, potVar int, stepLen float64) *curvature {
 	nv := len(w.e.vars)
 	a := &anchors[i]
+	if !finite(a.jac) {
+		return nil
+	}
 	type nb struct {
 		k int
 		d float64
@@ -52,7 +58,7 @@ func (w *walker) curvatureAt(anchors []meshAnchor, i, potVar int, stepLen float6
 	var nbs []nb
 	for k := range anchors {
 		b := &anchors[k]
-		if k == i || potVar >= 0 && math.Abs(a.x[potVar]-b.x[potVar]) > 1e-9 {
+		if k == i || potVar >= 0 && math.Abs(a.x[potVar]-b.x[potVar]) > 1e-9 || !finite(b.jac) {
 			continue
 		}
 		d := 0.0
@@ -121,4 +127,15 @@ func (c *curvature) weights(dx []float64) {
 		}
 		c.w[q] = s
 	}
+}
+
+// finite reports whether every value of xs is finite: slopes measured
+// where a probe lost the scoop are not.
+func finite(xs []float64) bool {
+	for _, x := range xs {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return false
+		}
+	}
+	return true
 }

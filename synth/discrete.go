@@ -24,7 +24,7 @@ func discrete(e *evaluator, ideal []float64) ([]float64, float64) {
 	cands := make([][]float64, n)
 	total := 1
 	for i := range e.vars {
-		cands[i] = candidates(&e.vars[i], ideal[i])
+		cands[i] = candidates(nil, &e.vars[i], ideal[i])
 		total *= len(cands[i])
 		if total > maxCombinations {
 			total = maxCombinations + 1
@@ -118,9 +118,10 @@ func discreteFrom(e *evaluator, best []float64) ([]float64, float64) {
 }
 
 // candidates are the allowed values next to the ideal value x: the members
-// just below and just above it and, when re-voicing, the original value.
-func candidates(v *variable, x float64) []float64 {
-	var out []float64
+// just below and just above it and, when re-voicing, the original value;
+// written over dst, which may be nil.
+func candidates(dst []float64, v *variable, x float64) []float64 {
+	out := dst[:0]
 	s, err := eseries.SnapTo(v.set, x)
 	if err == nil {
 		if s.HasBelow {
@@ -191,7 +192,7 @@ func snapSequential(e *evaluator, ideal []float64) ([]float64, float64) {
 	for _, k := range order {
 		bestF, bestV := math.Inf(1), vals[k]
 		var bestRest []float64
-		for _, c := range candidates(&all[k], vals[k]) {
+		for _, c := range candidates(nil, &all[k], vals[k]) {
 			trial := slices.Clone(vals)
 			trial[k] = c
 			fixed[k] = true

@@ -70,7 +70,6 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 	head := 0 // queue[head:] are waiting
 	x := make([]float64, nv)
 	w.mf.moving(w.nonPot)
-	w.mf.tol = meshTol
 	defer func() {
 		w.mf.moving(w.slaved)
 		w.mf.tol = 0
@@ -113,7 +112,10 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			return cmpFloat(math.Abs(math.Log(a)-x0[potVar]), math.Abs(math.Log(b)-x0[potVar]))
 		})
 	}
+	// The branches are exact designs (restoreTol); the anchors are
+	// restored to meshTol.
 	branches := w.branches(x0)
+	w.mf.tol = meshTol
 	for _, p := range byNear {
 		for _, b := range branches {
 			start := slices.Clone(b)
@@ -124,10 +126,11 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 		}
 	}
 	// enqueue queues a step from the anchor whose slopes are in w.jac
-	// unless it is near an anchor already.
-	enqueue := func(start []float64) {
+	// unless it is near an anchor or a step already queued, and reports
+	// whether it did.
+	enqueue := func(start []float64) bool {
 		if near(start) || slices.ContainsFunc(queue[head:], func(q step) bool { return nearOne(start, q.start) }) {
-			return
+			return false
 		}
 		p := len(w.nonPot)
 		slopes := make([]float64, w.nt*p)
@@ -137,6 +140,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			}
 		}
 		queue = append(queue, step{start, slopes})
+		return true
 	}
 	var null mat.Dense
 	var svd mat.SVD
@@ -214,10 +218,11 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 				if pi < 0 || pi+d < 0 || pi+d >= len(pots) || potSteps[pi+d] >= meshPotSteps {
 					continue
 				}
-				potSteps[pi+d]++
 				start := slices.Clone(a)
 				start[potVar] = math.Log(pots[pi+d])
-				enqueue(start)
+				if enqueue(start) {
+					potSteps[pi+d]++
+				}
 			}
 		}
 	}

@@ -19,7 +19,7 @@ func newShortlist(w *walker, n int) *shortlist {
 
 // admits reports whether c would rank among the best n.
 func (s *shortlist) admits(c *candidate) bool {
-	return len(s.c) < s.n || s.w.better(c, &s.c[len(s.c)-1])
+	return len(s.c) < s.n || len(s.c) > 0 && s.w.better(c, &s.c[len(s.c)-1])
 }
 
 // add puts c in the list when it ranks among the best n and its values

@@ -67,7 +67,6 @@ const (
 	LeastLoss
 )
 
-// String is the --prefer word.
 // ParsePrefer reads a Prefer: closest or loss.
 func ParsePrefer(s string) (Prefer, error) {
 	switch strings.ToLower(strings.TrimSpace(s)) {
@@ -79,6 +78,7 @@ func ParsePrefer(s string) (Prefer, error) {
 	return Closest, fmt.Errorf("%q: give closest (the figures nearest the targets) or loss (the least insertion loss)", s)
 }
 
+// String is the --prefer word.
 func (p Prefer) String() string {
 	if p == LeastLoss {
 		return "loss"
@@ -133,8 +133,11 @@ func (w *walker) better(a, b *candidate) bool {
 func (w *walker) judge(c *candidate, errs []float64, gain float64) {
 	c.misses, c.gain = 0, gain
 	worst, ss := 0.0, 0.0
+	if math.IsNaN(gain) {
+		c.gain = math.Inf(-1) // ranks last by loss
+	}
 	for i, x := range errs {
-		if math.Abs(x) > w.userUnit[i] {
+		if !(math.Abs(x) <= w.userUnit[i]) { // NaN included
 			c.misses++
 		}
 		f := x / w.unit[i]
@@ -253,11 +256,12 @@ func key(vals []float64) string {
 	return string(b)
 }
 
-// predictAround ranks, by the slopes at the anchor xa (log values, on the
-// targets), the combinations of allowed values about it: each of the parts
-// free at the members given in freeVals (one list per part), the slaved parts
-// at the members either side of their linearised solution (and, with
-// wide, one member further either way). It adds them to list. With curv,
+// predictAround ranks, by the errors and slopes at the anchor xa (log
+// values, near the targets: w.r0 holds its errors), the combinations of
+// allowed values about it: each of the parts free at the members given in
+// freeVals (one list per part), the slaved parts at the members either
+// side of their linearised solution (and, with wide, one member further
+// either way). It adds them to list. With curv,
 // the predictions take in how the slopes change (see curvature): for each
 // combination of the free parts, the errors and the slopes are carried to
 // the point where the slopes solve the slaved parts, the slaved parts are
@@ -297,6 +301,8 @@ func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]fl
 	pred := make([]float64, nt)
 	rp := make([]float64, nt+1)
 	jp := make([]float64, (nt+1)*ns)
+	rq := make([]float64, nt+1)
+	jq := make([]float64, (nt+1)*ns)
 	centre := make([]float64, ns)
 	step := make([]float64, ns)
 	dx := make([]float64, nv)
@@ -334,6 +340,8 @@ func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]fl
 					dx[j] = ds[k]
 				}
 				curv.weights(dx)
+				copy(rq, rp)
+				copy(jq, jp)
 				for q, wq := range curv.w {
 					if wq == 0 {
 						continue
@@ -345,18 +353,22 @@ func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]fl
 						for j, v := range row {
 							s += v * dx[j]
 						}
-						rp[i] += 0.5 * wq * s
+						rq[i] += 0.5 * wq * s
 						for k, j := range slaved {
-							jp[i*ns+k] += wq * row[j]
+							jq[i*ns+k] += wq * row[j]
 						}
 					}
 				}
 				// One Newton step for the slaved parts with the slopes
-				// at p.
+				// at p. A long step means the second-order model is
+				// carried beyond where it holds: the first-order
+				// prediction stands.
 				for i := 0; i < ns; i++ {
-					rhs[i] = -rp[i]
+					rhs[i] = -rq[i]
 				}
-				if solveSquare(jp[:ns*ns], rhs, step, ns) {
+				if solveSquare(jq[:ns*ns], rhs, step, ns) && floats.Norm(step, math.Inf(1)) <= curvatureStepMax {
+					copy(rp, rq)
+					copy(jp, jq)
 					for k := range centre {
 						centre[k] += step[k]
 					}
@@ -365,7 +377,7 @@ func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]fl
 			ok := true
 			for k, j := range slaved {
 				v := &e.vars[j]
-				cs := candidates(v, math.Exp(xa[j]+centre[k]))
+				cs := candidates(slavedCands[k][:0], v, math.Exp(xa[j]+centre[k]))
 				if wide && len(cs) > 0 {
 					if p, ok := eseries.Prev(v.set, cs[0]); ok {
 						cs = append([]float64{p}, cs...)
@@ -602,7 +614,8 @@ func membersNear(v *variable, x, h float64) []float64 {
 // targets). It returns the chosen values and whether it could run (the
 // problem has slaved parts); the values are then the best measured, and
 // ideal is overwritten with the exact design nearest them (the free parts
-// at their chosen values) when the targets can be solved there.
+// at their chosen values, or where the slaved parts have no solution
+// there, the least change of the parts other than pots) when one is found.
 func walk(e *evaluator, ideal []float64, tol Tolerance, prefer Prefer, effort int) ([]float64, bool) {
 	// A higher effort spreads more anchors, closer together, over more
 	// pots: pots within a factor F, at most P pots, A anchors a step of
