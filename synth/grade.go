@@ -15,8 +15,9 @@ import "math"
 
 // grade is how a combination of allowed values keeps the targets: miss[0]
 // is 1 when it breaks a limit, miss[1+r] the number of targets of rank r
-// missed beyond the evaluator's slack (all zero without a priority), then
-// the cost.
+// missed beyond the evaluator's slack (without a priority, miss[1] the
+// number missed beyond tolSlack; all zero when neither is set), then the
+// cost.
 type grade struct {
 	miss [maxTargets + 1]int
 	cost float64
@@ -51,7 +52,8 @@ func (e *evaluator) grade(vals []float64) grade {
 	if math.IsNaN(g.cost) {
 		g.cost = math.Inf(1)
 	}
-	if e.weights == nil || e.slack == nil {
+	priority := e.weights != nil && e.slack != nil
+	if !priority && e.tolSlack == nil {
 		return g
 	}
 	if e.overLimits(&m) > 0 {
@@ -60,6 +62,15 @@ func (e *evaluator) grade(vals []float64) grade {
 	var errs [maxTargets]float64
 	n := e.targetErrors(&m, &errs)
 	lost := math.IsInf(e.worst(&m), 1)
+	if !priority {
+		// Without a priority every target is of one rank.
+		for i := 0; i < n && i < len(e.tolSlack); i++ {
+			if lost || !(math.Abs(errs[i]) <= e.tolSlack[i]) {
+				g.miss[1]++
+			}
+		}
+		return g
+	}
 	for i := 0; i < n && i < len(e.ranks) && i < len(e.slack); i++ {
 		if lost || !(math.Abs(errs[i]) <= e.slack[i]) {
 			g.miss[1+min(e.ranks[i], maxTargets-1)]++

@@ -105,6 +105,11 @@ type evaluator struct {
 	slack []float64
 	// ranks are the targets' priority ranks (goal.ranks), with slack.
 	ranks []int
+	// tolSlack, when set, is each target's tolerance (the one the
+	// result is judged by) in units of IdealTolerance: without a
+	// priority, grade counts the targets missed beyond it before the
+	// cost, so that allowed values meet the tolerance first.
+	tolSlack []float64
 
 	progress func()
 }

@@ -53,22 +53,16 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 	pr := &progress{f: opt.Progress}
 	var best *run
 	limited := p.From != nil && p.MaxChanges > 0 && p.MaxChanges < len(vars)
-	subsets := [][]int(nil)
-	if limited {
-		subsets = choose(len(vars), p.MaxChanges)
-	}
-	switch {
-	case !limited && p.From == nil:
-		pr.total = runEstimate(len(vars), true)
-		best = solveRun(base, g, vars, true, s, rng, pr, tol, nil)
-	case !limited:
-		pr.total = runEstimate(len(vars), false) + len(vars)*runEstimate(1, false)
-		best = unlimited(base, g, vars, s, rng, pr, tol, nil)
-	case subsets == nil:
-		pr.total = greedyRuns(len(vars), p.MaxChanges) * runEstimate(p.MaxChanges, false)
-		best = greedy(base, g, vars, p.MaxChanges, s, rng, pr, tol)
-	default:
-		pr.total = len(subsets) * runEstimate(p.MaxChanges, false)
+	// withChanges re-voices with at most k parts changed: every subset of
+	// k parts when there are few, else greedily.
+	withChanges := func(k int) *run {
+		subsets := choose(len(vars), k)
+		if subsets == nil {
+			pr.total += greedyRuns(len(vars), k) * runEstimate(k, false)
+			return greedy(base, g, vars, k, s, rng, pr, tol)
+		}
+		pr.total += len(subsets) * runEstimate(k, false)
+		var best *run
 		for _, sub := range subsets {
 			vs := make([]variable, len(sub))
 			for j, i := range sub {
@@ -80,6 +74,17 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 				best = r
 			}
 		}
+		return best
+	}
+	switch {
+	case !limited && p.From == nil:
+		pr.total = runEstimate(len(vars), true)
+		best = solveRun(base, g, vars, true, s, rng, pr, tol, nil)
+	case !limited:
+		pr.total = runEstimate(len(vars), false) + len(vars)*runEstimate(1, false)
+		best = unlimited(base, g, vars, s, rng, pr, tol, nil)
+	default:
+		best = withChanges(p.MaxChanges)
 	}
 	if p.From != nil && !g.hasCurve() {
 		// (A curve fit wants the least error, not the fewest swaps
@@ -92,6 +97,16 @@ func Solve(p *Problem, opt Options) (*Result, error) {
 	if limited && !best.met {
 		pr.total += runEstimate(len(vars), false)
 		free = prune(base, g, unlimited(base, g, vars, s, rng, pr, tol, []*run{best}), tol)
+		// The swaps it lists should be the fewest that meet the
+		// targets: the pruned unlimited search's are not always, so
+		// fewer are tried while they meet.
+		for k := free.swaps() - 1; free.met && k > p.MaxChanges; k-- {
+			r := prune(base, g, withChanges(k), tol)
+			if !r.met || r.swaps() >= free.swaps() {
+				break
+			}
+			free = r
+		}
 	}
 	// A re-voicing whose free parts miss: would freeing every part meet
 	// the targets? Then --free is the cause, and that search gives the
@@ -287,6 +302,17 @@ func (r *run) embed(base *networks.Design, vars []variable) *run {
 // better reports whether r is a better result than q (nil: no result):
 // the one that misses fewer targets (beyond the tolerance), then the one
 // of lower cost; a tie keeps q.
+// swaps counts the parts whose chosen value differs from the original.
+func (r *run) swaps() int {
+	n := 0
+	for i, v := range r.vars {
+		if v.original > 0 && !same(r.chosen[i], v.original) {
+			n++
+		}
+	}
+	return n
+}
+
 func (r *run) better(q *run) bool {
 	if q == nil {
 		return true
@@ -402,6 +428,9 @@ func solveRun(base *networks.Design, g goal, vars []variable, fresh bool, s *set
 			}
 		}
 	}
+	// Allowed values meet the tolerance first (with a priority, rank by
+	// rank).
+	e.tolSlack = slackOf(g, tol)
 	e.setLog(x)
 	ideal := e.values(nil)
 	var chosen []float64
