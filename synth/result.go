@@ -63,6 +63,9 @@ type Result struct {
 	// with the nearest figure found while keeping the targets met
 	// (Held), those ranked above it first (Problem.Priority).
 	Conflicts []Conflict `json:"conflicts,omitempty"`
+	// Priority is, with Conflicts, the order the targets were kept in,
+	// highest first (Problem.Priority, or DefaultPriority).
+	Priority [][]string `json:"priority,omitempty"`
 	// Curves are, for a curve target, the fit at each setting.
 	Curves []CurveFit `json:"curves,omitempty"`
 	// Prefer is how the chosen design was chosen among those within the
@@ -238,6 +241,12 @@ func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, e
 			if !c.IdealMet {
 				res.Conflicts = append(res.Conflicts, Conflict{Target: c.Name, Key: c.Key, Unit: c.Unit, Wanted: c.Wanted,
 					Nearest: c.Ideal, Found: c.IdealFound, Held: held})
+			}
+		}
+		if len(res.Conflicts) > 0 {
+			res.Priority = g.priority
+			if res.Priority == nil {
+				res.Priority = DefaultPriority
 			}
 		}
 	}

@@ -204,7 +204,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		if err := printJSON(a.out, synthJSON{Targets: res.Targets, Ideal: synth.NewDesignJSON(res.Ideal),
 			Design: synth.NewDesignJSON(res.Design), Achieved: an, Met: res.Met, Feasible: res.Feasible,
 			Parts: res.Parts, Checks: res.Checks, Changes: nonNil(res.Changes), Prefer: res.Prefer, Cause: res.Cause,
-			Starts: res.Starts, Conflict: res.Conflicts, AtLimit: res.AtLimit, Limits: res.Limits, Curves: res.Curves}); err != nil {
+			Starts: res.Starts, Conflict: res.Conflicts, Priority: res.Priority, AtLimit: res.AtLimit, Limits: res.Limits, Curves: res.Curves}); err != nil {
 			return err
 		}
 	} else {
@@ -237,6 +237,7 @@ type synthJSON struct {
 	Cause    string             `json:"cause,omitempty"`
 	Starts   int                `json:"starts,omitempty"`
 	Conflict []synth.Conflict   `json:"conflicts,omitempty"`
+	Priority [][]string         `json:"priority,omitempty"`
 	AtLimit  []synth.AtLimit    `json:"at_limit,omitempty"`
 	Limits   []synth.LimitCheck `json:"limits,omitempty"`
 	Curves   []synth.CurveFit   `json:"curves,omitempty"`
@@ -592,9 +593,12 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 		}
 		fmt.Fprintf(w, "limit %s (%s): at most %s; ideal %s, chosen %s%s\n", l.Name, l.Key, limitFigure(l.Unit, l.Limit), limitFigure(l.Unit, l.Ideal), limitFigure(l.Unit, l.Achieved), mark)
 	}
-	if res.Prefer == "loss" {
+	switch {
+	case !res.Met:
+		fmt.Fprintln(w, "chosen: no design of allowed values is within tolerance; the one that misses the fewest targets (those kept first counting first), then the closest")
+	case res.Prefer == "loss":
 		fmt.Fprintln(w, "chosen: of the designs within tolerance, the one of least loss at 1 kHz (--prefer loss)")
-	} else {
+	default:
 		fmt.Fprintln(w, "chosen: of the designs within tolerance, the one closest to the targets (--prefer closest)")
 	}
 	for _, l := range res.AtLimit {
@@ -661,7 +665,7 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 			fmt.Fprintf(w, "  %s\n", conflictLine(c, res.Checks))
 		}
 		if len(res.Conflicts) > 0 {
-			fmt.Fprintln(w, "targets kept first: scoop frequency and corner, then depth, then balance, unless --priority says otherwise")
+			fmt.Fprintln(w, priorityLine(res.Priority))
 		}
 	}
 }
@@ -779,8 +783,27 @@ func missLine(c synth.Check) string {
 			by = fmt.Sprintf(", off by %+.2f dB", c.Error)
 		}
 	}
-	return fmt.Sprintf("%s: wanted %s, chosen parts give %s%s; nearest achievable with the targets before it held exactly (ideal parts) %s",
+	return fmt.Sprintf("%s: wanted %s, chosen parts give %s%s; nearest found with ideal parts %s",
 		c.Name, figure(c.Unit, c.Wanted, true), what(c.Achieved, c.Found), by, what(c.Ideal, c.IdealFound))
+}
+
+// priorityLine says in which order the targets were kept.
+func priorityLine(pr [][]string) string {
+	names := map[string]string{synth.TargetHz: "scoop frequency", synth.TargetCorner: "corner",
+		synth.TargetDepth: "depth", synth.TargetBalance: "balance"}
+	var groups []string
+	for _, g := range pr {
+		var ns []string
+		for _, t := range g {
+			ns = append(ns, names[t])
+		}
+		groups = append(groups, strings.Join(ns, " and "))
+	}
+	how := "(--priority)"
+	if slices.EqualFunc(pr, synth.DefaultPriority, slices.Equal) {
+		how = "(the default; --priority changes it)"
+	}
+	return "targets kept first: " + strings.Join(groups, ", then ") + " " + how
 }
 
 // unmetMessage is the one-line error for exit status 3.

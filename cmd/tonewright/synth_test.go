@@ -160,7 +160,9 @@ func TestSynthInfeasible(t *testing.T) {
 	if code != 3 {
 		t.Fatalf("exit %d, want 3\n%s%s", code, stdout, stderr)
 	}
-	for _, want := range []string{"not met:", "scoop balance: wanted +30.0 dB", "nearest achievable",
+	for _, want := range []string{"not met:", "scoop balance: wanted +30.0 dB", "nearest found with ideal parts",
+		"chosen: no design of allowed values is within tolerance",
+		"targets kept first: scoop frequency and corner, then depth, then balance (the default; --priority changes it)",
 		"no design within the tolerance was found in", "starts (physics seeds, random starts over every part, each pot value)",
 		"scoop balance: wanted +30.0 dB; the nearest that keeps the scoop frequency at 800 Hz, scoop depth at -8.0 dB and corner at 10 kHz is"} {
 		if !strings.Contains(stdout, want) {
@@ -324,5 +326,18 @@ func TestSynthCurveAndList(t *testing.T) {
 	code, _, stderr = tw(t, "synth", list)
 	if code != 2 || !strings.Contains(stderr, "the list form of targets re-voices a design") {
 		t.Errorf("exit %d %s", code, stderr)
+	}
+}
+
+// The report names the priority it kept the targets in: the one given by
+// --priority, said to be given.
+func TestSynthPriorityNamed(t *testing.T) {
+	code, stdout, stderr := tw(t, "synth", "--scoop-hz", "800", "--depth", "-8", "--balance", "30", "--corner", "10k", "--source", "1k",
+		"--priority", "balance,hz+corner,depth", "-o", filepath.Join(t.TempDir(), "best.yaml"))
+	if code != 3 {
+		t.Fatalf("exit %d, want 3\n%s%s", code, stdout, stderr)
+	}
+	if want := "targets kept first: balance, then scoop frequency and corner, then depth (--priority)"; !strings.Contains(stdout, want) {
+		t.Errorf("report lacks %q:\n%s", want, stdout)
 	}
 }
