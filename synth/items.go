@@ -121,7 +121,7 @@ func itemRows(items []Item) []row {
 		case ItemCurve:
 			out = append(out, row{i, "rms", "dB", "curve RMS error" + at, "targets.curve", 0, TargetDepth})
 		case ItemGain:
-			out = append(out, row{i, "gain", "dB", fmt.Sprintf("gain at %s Hz", eseries.Format(it.Hz)) + at, key + "gain_db.db", it.DB, TargetDepth})
+			out = append(out, row{i, "gain", "dB", "gain at " + freqText(it.Hz) + at, key + "gain_db.db", it.DB, TargetDepth})
 		}
 	}
 	return out
@@ -255,22 +255,22 @@ func (p *Problem) resolveItems(d *networks.Design, items []Item) (goal, error) {
 		switch it.Kind {
 		case ItemScoop, ItemPeak:
 			if !(it.Hz > b.From && it.Hz < b.To) {
-				return g, fieldErrorf(key+"."+it.Kind+".hz", "%s Hz lies outside the band %s–%s Hz: the figure must lie inside it",
-					eseries.Format(it.Hz), eseries.Format(b.From), eseries.Format(b.To))
+				return g, fieldErrorf(key+"."+it.Kind+".hz", "%s lies outside the band %s–%s: the figure must lie inside it",
+					freqText(it.Hz), freqText(b.From), freqText(b.To))
 			}
 		case ItemCorner:
 			if !(it.Hz > b.From && it.Hz < 10*b.To) {
-				return g, fieldErrorf(key+".corner_hz", "%s Hz lies outside what the corner can measure (%s Hz to 10 × band high = %s Hz)",
-					eseries.Format(it.Hz), eseries.Format(b.From), eseries.Format(10*b.To))
+				return g, fieldErrorf(key+".corner_hz", "%s lies outside what the corner can measure (%s to 10 × band high = %s)",
+					freqText(it.Hz), freqText(b.From), freqText(10*b.To))
 			}
 		case ItemLowCorner:
 			if !(it.Hz > b.From/10 && it.Hz < b.To) {
-				return g, fieldErrorf(key+".low_corner_hz", "%s Hz lies outside what the low corner can measure (band low / 10 = %s Hz to %s Hz)",
-					eseries.Format(it.Hz), eseries.Format(b.From/10), eseries.Format(b.To))
+				return g, fieldErrorf(key+".low_corner_hz", "%s lies outside what the low corner can measure (band low / 10 = %s to %s)",
+					freqText(it.Hz), freqText(b.From/10), freqText(b.To))
 			}
 		case ItemGain:
 			if !(it.Hz >= b.From && it.Hz <= b.To) {
-				return g, fieldErrorf(key+".gain_db.hz", "%s Hz lies outside the band %s–%s Hz", eseries.Format(it.Hz), eseries.Format(b.From), eseries.Format(b.To))
+				return g, fieldErrorf(key+".gain_db.hz", "%s lies outside the band %s–%s", freqText(it.Hz), freqText(b.From), freqText(b.To))
 			}
 		}
 	}
@@ -412,3 +412,7 @@ func (g goal) hasCurve() bool {
 	}
 	return false
 }
+
+// freqText writes a frequency with its unit and prefix: 200 kHz, 1.2 kHz,
+// 80 Hz (up to four significant digits, so that a bound reads as given).
+func freqText(hz float64) string { return eseries.WithUnit(hz, 4, "Hz") }

@@ -188,8 +188,8 @@ func (p *Problem) goal(d *networks.Design) (goal, error) {
 	// networks.Meter.Corner): a target outside that cannot be measured,
 	// so no design can be shown to meet it.
 	if b := d.Band; g.corner && !(g.cornerHz > b.From && g.cornerHz < 10*b.To) {
-		return g, fieldErrorf("targets.corner_hz", "%s Hz lies outside what the corner can measure (%s Hz to 10 × band high = %s Hz): give a corner inside that range, e.g. 5k, or widen the band",
-			eseries.Format(g.cornerHz), eseries.Format(b.From), eseries.Format(10*b.To))
+		return g, fieldErrorf("targets.corner_hz", "%s lies outside what the corner can measure (%s to 10 × band high = %s): give a corner inside that range, e.g. 5k, or widen the band",
+			freqText(g.cornerHz), freqText(b.From), freqText(10*b.To))
 	}
 	if !g.scoop && !g.corner {
 		return g, fieldErrorf("targets", "%v: give a scoop (frequency and depth) or a corner", errNoTargets)
