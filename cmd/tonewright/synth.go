@@ -655,6 +655,9 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 		default:
 			if held := heldParts(res); len(held) > 0 {
 				fmt.Fprintf(w, "the ideal values of the free parts miss too: with %s held as they are (--free), no design within the tolerance was found;\n", strings.Join(held, ", "))
+				if u := res.Freed; u != nil && !u.Met {
+					fmt.Fprintln(w, "with every part free no design within the tolerance was found either: --free is not what stops it;")
+				}
 				fmt.Fprintln(w, "the ideal column shows the nearest figures found")
 			} else {
 				fmt.Fprintf(w, "the ideal parts miss too: %s;\n", searchSaid(res))

@@ -341,3 +341,16 @@ func TestSynthPriorityNamed(t *testing.T) {
 		t.Errorf("report lacks %q:\n%s", want, stdout)
 	}
 }
+
+// When the free parts miss and freeing every part misses too, the report
+// says --free is not what stops it.
+func TestSynthFreeNotTheCause(t *testing.T) {
+	board := writeTemp(t, "board.yaml", synthBoard)
+	code, stdout, stderr := tw(t, "synth", "--from", board, "--balance", "30", "--free", "filters.r", "-o", filepath.Join(t.TempDir(), "out.yaml"))
+	if code != 3 {
+		t.Fatalf("exit %d, want 3\n%s%s", code, stdout, stderr)
+	}
+	if want := "with every part free no design within the tolerance was found either: --free is not what stops it"; !strings.Contains(stdout, want) {
+		t.Errorf("report lacks %q:\n%s", want, stdout)
+	}
+}
