@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -183,7 +184,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 		_ = bar.Finish()
 	}
 	if err != nil {
-		return badInput(err)
+		return badInput(flagBlamed(cmd, err))
 	}
 
 	if f.out != "" {
@@ -788,6 +789,24 @@ func missLine(c synth.Check) string {
 	}
 	return fmt.Sprintf("%s: wanted %s, chosen parts give %s%s; nearest found with ideal parts %s",
 		c.Name, figure(c.Unit, c.Wanted, true), what(c.Achieved, c.Found), by, what(c.Ideal, c.IdealFound))
+}
+
+// targetFlags are the flags that set a targets key.
+var targetFlags = map[string]string{"targets.corner_hz": "corner", "targets.scoop.hz": "scoop-hz",
+	"targets.scoop.depth_db": "depth", "targets.scoop.balance_db": "balance", "targets.scoop.at": "at"}
+
+// flagBlamed names the flag, when a flag set the targets key an error is
+// about: the person typed --corner, not targets.corner_hz.
+func flagBlamed(cmd *cobra.Command, err error) error {
+	var fe *networks.FieldError
+	if !errors.As(err, &fe) {
+		return err
+	}
+	name, ok := targetFlags[fe.Key]
+	if !ok || !cmd.Flags().Changed(name) {
+		return err
+	}
+	return usageErrorf("--%s %s: %v", name, cmd.Flags().Lookup(name).Value.String(), fe.Err)
 }
 
 // priorityLine says in which order the targets were kept.

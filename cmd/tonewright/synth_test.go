@@ -222,7 +222,8 @@ func TestSynthBadInput(t *testing.T) {
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "10", "--corner", "5k"}, "--depth 10: a scoop's depth is negative"},
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "--resistors", "E25"}, "--resistors \"E25\": give a series (E3, E6"},
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "--at", "2"}, "--at: knob position 2 is outside 0..1"},
-		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "1e30"}, "targets.corner_hz: 1e30 Hz lies outside what the corner can measure"},
+		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "1e30"}, "--corner 1e30: 1e30 Hz lies outside what the corner can measure"},
+		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "250k"}, "--corner 250k: 250 kHz lies outside what the corner can measure (20 Hz to 10 × band high = 200 kHz)"},
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "--prefer", "cheap"}, "--prefer \"cheap\": give closest"},
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "--priority", "treble"}, "--priority \"treble\":"},
 		{[]string{"synth", "--scoop-hz", "800", "--depth", "-10", "--corner", "5k", "--plot", filepath.Join(dir, "x.gif")}, "must end in .png or .svg"},
@@ -275,7 +276,7 @@ func TestSynthInputHints(t *testing.T) {
 		t.Errorf("exit %d\n%s%s", code, stdout, stderr)
 	}
 	code, _, stderr = tw(t, "synth", "--scoop-hz", "700", "--depth", "-8", "--corner", "9k", "--filters", "0")
-	if code != 2 || !strings.Contains(stderr, "targets.corner_hz:") || !strings.Contains(stderr, "--corner") ||
+	if code != 2 || !strings.Contains(stderr, "--corner 9k:") || !strings.Contains(stderr, "--corner") ||
 		!strings.Contains(stderr, "needs at least one filter section or a load capacitance") {
 		t.Errorf("exit %d %s", code, stderr)
 	}
