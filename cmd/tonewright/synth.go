@@ -568,9 +568,15 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 		} else {
 			name += " (knob 1)"
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t\n", name, figure(c.Unit, c.Wanted, true),
-			figure(c.Unit, c.Ideal, c.IdealFound), checkError(c.Unit, c.IdealError, c.IdealFound, c.IdealMet, synth.IdealTolerance),
-			figure(c.Unit, c.Achieved, c.Found), checkError(c.Unit, c.Error, c.Found, c.Met, synth.PartsTolerance))
+		fig := func(v float64, found bool) string { return figure(c.Unit, v, found) }
+		if c.Key == "targets.curve" {
+			// An RMS error of hundredths of a dB: as many places as
+			// the error column.
+			fig = func(v float64, _ bool) string { return fmt.Sprintf("%.2f dB", v) }
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t\n", name, fig(c.Wanted, true),
+			fig(c.Ideal, c.IdealFound), checkError(c.Unit, c.IdealError, c.IdealFound, c.IdealMet, synth.IdealTolerance),
+			fig(c.Achieved, c.Found), checkError(c.Unit, c.Error, c.Found, c.Met, synth.PartsTolerance))
 	}
 	tw.Flush()
 	fmt.Fprintf(w, "\ngain at 1 kHz (knob 0.5): ideal %s, chosen %s\n", db(res.IdealMetrics.Gain1kDB), db(res.Metrics.Gain1kDB))
