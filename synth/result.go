@@ -63,6 +63,10 @@ type Result struct {
 	// with the nearest figure found while keeping the targets met
 	// (Held), those ranked above it first (Problem.Priority).
 	Conflicts []Conflict `json:"conflicts,omitempty"`
+	// GainSetting says where Metrics.Gain1kDB is measured: "knob 0.5"
+	// for the blend network, the swept knob at 0.5 for another, or "its
+	// knobs as set" for the list form and curve targets.
+	GainSetting string `json:"-"`
 	// Priority is, with Conflicts, the order the targets were kept in,
 	// highest first (Problem.Priority, or DefaultPriority).
 	Priority [][]string `json:"priority,omitempty"`
@@ -224,6 +228,14 @@ func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, e
 		res.Met = res.Met && l.Met
 	}
 	res.Starts, res.Prefer = r.starts, g.prefer.String()
+	switch k := sweptKnob(base); {
+	case len(g.items) > 0:
+		res.GainSetting = "its knobs as set"
+	case base.Tone.Network == networks.BlendNetwork || k == "":
+		res.GainSetting = "knob 0.5"
+	default:
+		res.GainSetting = k + " 0.5"
+	}
 	for k, rw := range g.rows {
 		if rw.figure == "rms" {
 			res.Curves = append(res.Curves, CurveFit{Setting: g.items[rw.item].label(), RMSDB: res.Metrics.Figures[k],

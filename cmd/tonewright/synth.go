@@ -579,7 +579,7 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 			fig(c.Achieved, c.Found), checkError(c.Unit, c.Error, c.Found, c.Met, synth.PartsTolerance))
 	}
 	tw.Flush()
-	fmt.Fprintf(w, "\ngain at 1 kHz (knob 0.5): ideal %s, chosen %s\n", db(res.IdealMetrics.Gain1kDB), db(res.Metrics.Gain1kDB))
+	fmt.Fprintf(w, "\ngain at 1 kHz (%s): ideal %s, chosen %s\n", res.GainSetting, db(res.IdealMetrics.Gain1kDB), db(res.Metrics.Gain1kDB))
 	if res.Metrics.Gain1kDB < heavyLossDB {
 		fmt.Fprintf(w, "note: the section loses %.0f dB at 1 kHz; the stage before it must make that up, and noise and hum pick-up grow with it\n", -res.Metrics.Gain1kDB)
 	}
