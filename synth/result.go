@@ -67,6 +67,9 @@ type Result struct {
 	// for the blend network, the swept knob at 0.5 for another, or "its
 	// knobs as set" for the list form and curve targets.
 	GainSetting string `json:"-"`
+	// Knob names the knob the mapping form's figures are taken at: "knob"
+	// for the blend network's, else the swept knob's name.
+	Knob string `json:"-"`
 	// Priority is, with Conflicts, the order the targets were kept in,
 	// highest first (Problem.Priority, or DefaultPriority).
 	Priority [][]string `json:"priority,omitempty"`
@@ -228,13 +231,13 @@ func (r *run) result(p *Problem, base *networks.Design, g goal, tol Tolerance, e
 		res.Met = res.Met && l.Met
 	}
 	res.Starts, res.Prefer = r.starts, g.prefer.String()
-	switch k := sweptKnob(base); {
-	case len(g.items) > 0:
+	res.Knob = "knob"
+	if k := sweptKnob(base); base.Tone.Network != networks.BlendNetwork && k != "" {
+		res.Knob = k
+	}
+	res.GainSetting = res.Knob + " 0.5"
+	if len(g.items) > 0 {
 		res.GainSetting = "its knobs as set"
-	case base.Tone.Network == networks.BlendNetwork || k == "":
-		res.GainSetting = "knob 0.5"
-	default:
-		res.GainSetting = k + " 0.5"
 	}
 	for k, rw := range g.rows {
 		if rw.figure == "rms" {

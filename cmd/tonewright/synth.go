@@ -564,9 +564,9 @@ func writeSynthReport(w io.Writer, res *synth.Result, revoice bool) {
 		if strings.HasPrefix(c.Key, "targets[") || c.Key == "targets.curve" {
 			// The list form: the name carries its knob setting.
 		} else if strings.HasPrefix(name, "scoop") {
-			name += " (knob " + posLabel(at) + ")"
+			name += " (" + res.Knob + " " + posLabel(at) + ")"
 		} else {
-			name += " (knob 1)"
+			name += " (" + res.Knob + " 1)"
 		}
 		fig := func(v float64, found bool) string { return figure(c.Unit, v, found) }
 		if c.Key == "targets.curve" {
