@@ -120,7 +120,7 @@ func runSynth(a *app, cmd *cobra.Command, args []string, f *synthFlags) error {
 			}
 			return badInput(err)
 		}
-		if p.Name == "" {
+		if p.Name == "" && f.from == "" {
 			p.Name = strings.TrimSuffix(filepath.Base(args[0]), filepath.Ext(args[0]))
 		}
 		inputs = append(inputs, args[0])
