@@ -4,6 +4,7 @@ import (
 	"math"
 	"slices"
 
+	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -126,6 +127,28 @@ func (c *curvature) weights(dx []float64) {
 			s += v * dx[j]
 		}
 		c.w[q] = s
+	}
+}
+
+// carry adds to r (the errors and gain a way dx from the anchor, to first
+// order) and jac (their slopes in the parts slaved, row-major) the second
+// order: ½ Σ_k w_k (J_k − J_a)·dx to r and Σ_k w_k (J_k − J_a) to jac, with
+// w = pinv(D)·dx.
+func (c *curvature) carry(dx []float64, slaved []int, r, jac []float64) {
+	c.weights(dx)
+	nv, ns := len(dx), len(slaved)
+	for q, wq := range c.w {
+		if wq == 0 {
+			continue
+		}
+		dj := c.dJ[q]
+		for i := range r {
+			row := dj[i*nv : (i+1)*nv]
+			r[i] += 0.5 * wq * floats.Dot(row, dx)
+			for k, j := range slaved {
+				jac[i*ns+k] += wq * row[j]
+			}
+		}
 	}
 }
 

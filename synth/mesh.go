@@ -61,11 +61,14 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 	nv := len(e.vars)
 	list := newShortlist(w, keep)
 	var anchors []meshAnchor
-	// The queue holds steps not yet restored, each with the slopes of the
-	// anchor it leaves (nil for the starts): a step is restored only when
-	// its turn comes, so the steps still queued when the anchors run out
-	// cost nothing.
-	type step struct{ start, slopes []float64 }
+	// The queue holds steps not yet restored, each with the anchor it
+	// leaves (-1 for the starts): a step is restored only when its turn
+	// comes, so the steps still queued when the anchors run out cost
+	// nothing.
+	type step struct {
+		start  []float64
+		parent int
+	}
 	var queue []step
 	head := 0 // queue[head:] are waiting
 	x := make([]float64, nv)
@@ -75,14 +78,20 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 		w.mf.tol = 0
 	}()
 	var gain float64
-	restore := func(start, slopes []float64) bool {
+	restore := func(start []float64, parent int) bool {
 		copy(x, start)
 		w.mf.have = false
-		if slopes != nil {
-			// The anchor's slopes as the first Jacobian: a step from
+		if parent >= 0 {
+			// The anchor's slopes (in the parts other than pots, the
+			// ones restore moves) as the first Jacobian: a step from
 			// the anchor starts near the targets, and restore
 			// recomputes the Jacobian when a step with it fails.
-			copy(w.mf.jac, slopes)
+			p, jac := len(w.nonPot), anchors[parent].jac
+			for i := 0; i < w.nt; i++ {
+				for k, j := range w.nonPot {
+					w.mf.jac[i*p+k] = jac[i*nv+j]
+				}
+			}
 			w.mf.have, w.mf.exact = true, false
 		}
 		var ok bool
@@ -122,24 +131,16 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 			if potVar >= 0 {
 				start[potVar] = math.Log(p)
 			}
-			queue = append(queue, step{start: start})
+			queue = append(queue, step{start, -1})
 		}
 	}
-	// enqueue queues a step from the anchor whose slopes are in w.jac
-	// unless it is near an anchor or a step already queued, and reports
-	// whether it did.
+	// enqueue queues a step from the last anchor placed unless it is near
+	// an anchor or a step already queued, and reports whether it did.
 	enqueue := func(start []float64) bool {
 		if near(start) || slices.ContainsFunc(queue[head:], func(q step) bool { return nearOne(start, q.start) }) {
 			return false
 		}
-		p := len(w.nonPot)
-		slopes := make([]float64, w.nt*p)
-		for i := 0; i < w.nt; i++ {
-			for k, j := range w.nonPot {
-				slopes[i*p+k] = w.jac[i*nv+j]
-			}
-		}
-		queue = append(queue, step{start, slopes})
+		queue = append(queue, step{start, len(anchors) - 1})
 		return true
 	}
 	var null mat.Dense
@@ -155,7 +156,7 @@ func (w *walker) mesh(x0 []float64, pots []float64, potVar int, anchorMax, keep 
 		head++
 		// A step is restored when neither it nor where it lands is near
 		// an anchor.
-		if near(st.start) || !restore(st.start, st.slopes) || near(x) {
+		if near(st.start) || !restore(st.start, st.parent) || near(x) {
 			continue
 		}
 		a := slices.Clone(x)

@@ -339,26 +339,9 @@ func (w *walker) predictAround(xa []float64, slaved, free []int, freeVals [][]fl
 				for k, j := range slaved {
 					dx[j] = ds[k]
 				}
-				curv.weights(dx)
 				copy(rq, rp)
 				copy(jq, jp)
-				for q, wq := range curv.w {
-					if wq == 0 {
-						continue
-					}
-					dj := curv.dJ[q]
-					for i := 0; i <= nt; i++ {
-						row := dj[i*nv : (i+1)*nv]
-						s := 0.0
-						for j, v := range row {
-							s += v * dx[j]
-						}
-						rq[i] += 0.5 * wq * s
-						for k, j := range slaved {
-							jq[i*ns+k] += wq * row[j]
-						}
-					}
-				}
+				curv.carry(dx, slaved, rq, jq)
 				// One Newton step for the slaved parts with the slopes
 				// at p. A long step means the second-order model is
 				// carried beyond where it holds: the first-order
